@@ -1,0 +1,1 @@
+export type { Target, TargetOutputs } from './target.js';
