@@ -1,1 +1,3 @@
-export {};
+export * from './errors.js';
+export * from './constants.js';
+export * from './kepler.js';

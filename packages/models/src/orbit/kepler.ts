@@ -1,0 +1,198 @@
+/**
+ * Kepler's equation M = E - e sin E, solved for the eccentric anomaly E in float64.
+ *
+ * Method: the mean anomaly is reduced to [-pi, pi) keeping the number of whole turns,
+ * folded onto [0, pi] by the odd symmetry E(-M) = -E(M), started with the cubic
+ * approximation of Markley (1995, Celestial Mechanics 63, 101, eqs. 5-20) and refined
+ * with his fifth-order (quartic-denominator) Householder-type correction. A second
+ * correction is applied only when the first one was large, so the iteration count is
+ * bounded by `MAX_CORRECTIONS`. The sine and cosine of E are carried through the last
+ * correction by angle addition, so callers that need them pay for no extra trig calls.
+ */
+import { OrbitParameterError } from './errors.js';
+
+const PI = Math.PI;
+const TWO_PI = 2 * Math.PI;
+const PI_SQUARED = PI * PI;
+const MARKLEY_DENOMINATOR = PI_SQUARED - 6;
+/** Upper bound on Householder corrections after the starter. */
+export const MAX_CORRECTIONS = 3;
+/**
+ * A correction below this size leaves an error at the rounding level (fifth-order
+ * convergence). Markley's starter is within 5e-4 rad of the root on all of
+ * 0 <= e < 1, so in practice one correction is made; further ones are a safety net.
+ */
+const CONVERGED_STEP = 2e-3;
+
+/**
+ * Solves Kepler's equation for a mean anomaly folded onto [0, pi]; writes E, sin E,
+ * cos E into out[at], out[at + 1], out[at + 2]. No input checks.
+ */
+function solveFolded(m: number, e: number, out: Float64Array, at: number): void {
+  if (e === 0 || m === 0) {
+    out[at] = m;
+    out[at + 1] = Math.sin(m);
+    out[at + 2] = Math.cos(m);
+    return;
+  }
+  // Markley's starter: a cubic in E whose coefficients interpolate the Pade-like
+  // approximation of sin E across [0, pi].
+  const oneMinusE = 1 - e;
+  const alpha = (3 * PI_SQUARED + (1.6 * PI * (PI - m)) / (1 + e)) / MARKLEY_DENOMINATOR;
+  const d = 3 * oneMinusE + alpha * e;
+  const q = 2 * alpha * d * oneMinusE - m * m;
+  const r = 3 * alpha * d * (d - oneMinusE) * m + m * m * m;
+  const w = Math.cbrt(Math.abs(r) + Math.sqrt(q * q * q + r * r));
+  const w2 = w * w;
+  let E = ((2 * r * w2) / (w2 * w2 + w2 * q + q * q) + m) / d;
+  let sinE = Math.sin(E);
+  let cosE = Math.cos(E);
+  for (let pass = 0; pass < MAX_CORRECTIONS; pass++) {
+    const es = e * sinE;
+    const ec = e * cosE;
+    const f0 = E - es - m;
+    const f1 = 1 - ec;
+    const d3 = -f0 / (f1 - (0.5 * f0 * es) / f1);
+    const d4 = -f0 / (f1 + 0.5 * d3 * es + (d3 * d3 * ec) / 6);
+    const d5 = -f0 / (f1 + 0.5 * d4 * es + (d4 * d4 * ec) / 6 - (d4 * d4 * d4 * es) / 24);
+    E += d5;
+    const a = Math.abs(d5);
+    if (a < CONVERGED_STEP) {
+      // sin/cos(E + d5) by angle addition with the Taylor series of sin d5, cos d5
+      // (truncation below 1e-19 for |d5| < 2e-3).
+      const dd = d5 * d5;
+      const sd = d5 * (1 - (dd / 6) * (1 - dd / 20));
+      const cd = 1 - (dd / 2) * (1 - dd / 12);
+      const s = sinE * cd + cosE * sd;
+      cosE = cosE * cd - sinE * sd;
+      sinE = s;
+      break;
+    }
+    sinE = Math.sin(E);
+    cosE = Math.cos(E);
+  }
+  out[at] = E;
+  out[at + 1] = sinE;
+  out[at + 2] = cosE;
+}
+
+/**
+ * Unchecked solver for hot loops: any finite mean anomaly `M` (radians) and
+ * 0 <= e < 1. Writes E (radians, continuous in M: E(M + 2 pi) = E(M) + 2 pi),
+ * sin E and cos E into `out[at..at+2]`. The caller guarantees the domain.
+ */
+export function solveKeplerInto(M: number, e: number, out: Float64Array, at = 0): void {
+  let turns = Math.floor((M + PI) / TWO_PI);
+  let m = M - turns * TWO_PI;
+  if (m >= PI) {
+    m -= TWO_PI;
+    turns += 1;
+  } else if (m < -PI) {
+    m += TWO_PI;
+    turns -= 1;
+  }
+  if (m < 0) {
+    solveFolded(-m, e, out, at);
+    out[at] = -out[at];
+    out[at + 1] = -out[at + 1];
+  } else {
+    solveFolded(m, e, out, at);
+  }
+  if (turns !== 0) out[at] += turns * TWO_PI;
+}
+
+function checkEccentricity(e: number, field: string): void {
+  if (!(e >= 0 && e < 1)) throw new OrbitParameterError(field, e, 'a number in [0, 1)');
+}
+
+function checkMeanAnomaly(M: number, field: string): void {
+  if (!Number.isFinite(M)) throw new OrbitParameterError(field, M, 'a finite number (radians)');
+}
+
+const scalarScratch = new Float64Array(3);
+
+/**
+ * Eccentric anomaly E (radians, float64) solving M = E - e sin E.
+ *
+ * @param meanAnomaly mean anomaly M in radians, any finite real; E keeps M's number of
+ *   whole turns, so E(M + 2 pi) = E(M) + 2 pi.
+ * @param eccentricity orbital eccentricity, 0 <= e < 1.
+ * @throws OrbitParameterError if M is not finite or e is outside [0, 1).
+ */
+export function solveKepler(meanAnomaly: number, eccentricity: number): number {
+  checkMeanAnomaly(meanAnomaly, 'meanAnomaly');
+  checkEccentricity(eccentricity, 'eccentricity');
+  solveKeplerInto(meanAnomaly, eccentricity, scalarScratch, 0);
+  return scalarScratch[0];
+}
+
+/** Eccentric anomaly with its sine and cosine, from {@link solveKeplerWithTrig}. */
+export interface EccentricAnomaly {
+  /** Eccentric anomaly, radians. */
+  E: number;
+  sinE: number;
+  cosE: number;
+}
+
+/**
+ * Like {@link solveKepler}, also returning sin E and cos E (computed without extra
+ * trigonometric calls).
+ */
+export function solveKeplerWithTrig(meanAnomaly: number, eccentricity: number): EccentricAnomaly {
+  checkMeanAnomaly(meanAnomaly, 'meanAnomaly');
+  checkEccentricity(eccentricity, 'eccentricity');
+  solveKeplerInto(meanAnomaly, eccentricity, scalarScratch, 0);
+  return { E: scalarScratch[0], sinE: scalarScratch[1], cosE: scalarScratch[2] };
+}
+
+/**
+ * Vectorised Kepler solve over a `Float64Array` of mean anomalies (radians).
+ *
+ * @param meanAnomaly mean anomalies M, radians, finite.
+ * @param eccentricity one eccentricity for all points, or one per point (same length).
+ * @param outE receives E (radians); may be the same array as `meanAnomaly`.
+ * @param outSinE optional, receives sin E.
+ * @param outCosE optional, receives cos E.
+ * @throws OrbitParameterError on a non-finite M, an eccentricity outside [0, 1) or
+ *   mismatched lengths (the field names the offending index).
+ */
+export function solveKeplerArray(
+  meanAnomaly: Float64Array,
+  eccentricity: number | Float64Array,
+  outE: Float64Array,
+  outSinE?: Float64Array,
+  outCosE?: Float64Array,
+): void {
+  const n = meanAnomaly.length;
+  const perPoint = typeof eccentricity !== 'number';
+  if (outE.length < n) throw new OrbitParameterError('outE.length', outE.length, `at least ${n}`);
+  if (outSinE && outSinE.length < n) throw new OrbitParameterError('outSinE.length', outSinE.length, `at least ${n}`);
+  if (outCosE && outCosE.length < n) throw new OrbitParameterError('outCosE.length', outCosE.length, `at least ${n}`);
+  if (perPoint) {
+    if (eccentricity.length !== n) {
+      throw new OrbitParameterError('eccentricity.length', eccentricity.length, `${n} (one per mean anomaly)`);
+    }
+    for (let i = 0; i < n; i++) checkEccentricity(eccentricity[i], `eccentricity[${i}]`);
+  } else {
+    checkEccentricity(eccentricity, 'eccentricity');
+  }
+  for (let i = 0; i < n; i++) checkMeanAnomaly(meanAnomaly[i], `meanAnomaly[${i}]`);
+  const s = new Float64Array(3);
+  for (let i = 0; i < n; i++) {
+    solveKeplerInto(meanAnomaly[i], perPoint ? eccentricity[i] : eccentricity, s, 0);
+    outE[i] = s[0];
+    if (outSinE) outSinE[i] = s[1];
+    if (outCosE) outCosE[i] = s[2];
+  }
+}
+
+/**
+ * Partial derivatives of E(M, e) by the implicit function theorem:
+ * dE/dM = 1 / (1 - e cos E), dE/de = sin E / (1 - e cos E).
+ * Writes [dE/dM, dE/de] into `out[at..at+1]`.
+ */
+export function keplerPartialsInto(e: number, sinE: number, cosE: number, out: Float64Array, at = 0): void {
+  const inv = 1 / (1 - e * cosE);
+  out[at] = inv;
+  out[at + 1] = sinE * inv;
+}
