@@ -1,3 +1,10 @@
 export * from './errors.js';
 export * from './constants.js';
 export * from './kepler.js';
+export * from './anomalies.js';
+export * from './epochs.js';
+export * from './eccentricityForms.js';
+export { PLANET_STRIDE, planetParameterNames, type EccentricityForm } from './planetParameters.js';
+export * from './rvCurve.js';
+export * from './rvLikelihood.js';
+export * from './semiAmplitude.js';

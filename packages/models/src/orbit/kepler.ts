@@ -14,7 +14,8 @@ import { OrbitParameterError } from './errors.js';
 const PI = Math.PI;
 const TWO_PI = 2 * Math.PI;
 const PI_SQUARED = PI * PI;
-const MARKLEY_DENOMINATOR = PI_SQUARED - 6;
+const MARKLEY_A = (3 * PI_SQUARED) / (PI_SQUARED - 6);
+const MARKLEY_B = (1.6 * PI) / (PI_SQUARED - 6);
 /** Upper bound on Householder corrections after the starter. */
 export const MAX_CORRECTIONS = 3;
 /**
@@ -35,29 +36,31 @@ function solveFolded(m: number, e: number, out: Float64Array, at: number): void 
     out[at + 2] = Math.cos(m);
     return;
   }
-  // Markley's starter: a cubic in E whose coefficients interpolate the Pade-like
-  // approximation of sin E across [0, pi].
+  // Markley's starter: a cubic in E whose coefficients interpolate a rational
+  // approximation of sin E across [0, pi] (his eqs. 5-20, rearranged).
   const oneMinusE = 1 - e;
-  const alpha = (3 * PI_SQUARED + (1.6 * PI * (PI - m)) / (1 + e)) / MARKLEY_DENOMINATOR;
+  const alpha = MARKLEY_A + (MARKLEY_B * (PI - m)) / (1 + e);
   const d = 3 * oneMinusE + alpha * e;
-  const q = 2 * alpha * d * oneMinusE - m * m;
-  const r = 3 * alpha * d * (d - oneMinusE) * m + m * m * m;
+  const ad = alpha * d;
+  const q = 2 * ad * oneMinusE - m * m;
+  const r = (3 * ad * (d - oneMinusE) + m * m) * m;
   const w = Math.cbrt(Math.abs(r) + Math.sqrt(q * q * q + r * r));
   const w2 = w * w;
   let E = ((2 * r * w2) / (w2 * w2 + w2 * q + q * q) + m) / d;
   let sinE = Math.sin(E);
   let cosE = Math.cos(E);
   for (let pass = 0; pass < MAX_CORRECTIONS; pass++) {
+    // Fifth-order correction: successive substitution of the Taylor series of
+    // f(E) = E - e sin E - M to fourth order (Markley 1995, eqs. 21-25).
     const es = e * sinE;
     const ec = e * cosE;
     const f0 = E - es - m;
     const f1 = 1 - ec;
-    const d3 = -f0 / (f1 - (0.5 * f0 * es) / f1);
-    const d4 = -f0 / (f1 + 0.5 * d3 * es + (d3 * d3 * ec) / 6);
-    const d5 = -f0 / (f1 + 0.5 * d4 * es + (d4 * d4 * ec) / 6 - (d4 * d4 * d4 * es) / 24);
+    const d3 = (-f0 * f1) / (f1 * f1 - 0.5 * f0 * es);
+    const d4 = -f0 / (f1 + d3 * (0.5 * es + (d3 * ec) / 6));
+    const d5 = -f0 / (f1 + d4 * (0.5 * es + d4 * (ec / 6 - (d4 * es) / 24)));
     E += d5;
-    const a = Math.abs(d5);
-    if (a < CONVERGED_STEP) {
+    if (Math.abs(d5) < CONVERGED_STEP) {
       // sin/cos(E + d5) by angle addition with the Taylor series of sin d5, cos d5
       // (truncation below 1e-19 for |d5| < 2e-3).
       const dd = d5 * d5;
