@@ -8,3 +8,6 @@ export { PLANET_STRIDE, planetParameterNames, type EccentricityForm } from './pl
 export * from './rvCurve.js';
 export * from './rvLikelihood.js';
 export * from './semiAmplitude.js';
+export * from './keplerOp.js';
+export * from './rvCurveOp.js';
+export * from './rvLikelihoodOp.js';
