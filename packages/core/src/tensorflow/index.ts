@@ -1,0 +1,10 @@
+export {
+  selectBackend,
+  resetNativeProbe,
+  DEFAULT_BACKEND,
+  type BackendChoice,
+  type BackendInfo,
+  type BackendOptions,
+} from './backend.js';
+export { BackendSelectionError } from './errors.js';
+export { loadTensorFlow, type TensorFlow } from './loadTensorFlow.js';
