@@ -83,7 +83,8 @@ export function conjunctionMeanAnomalyUnchecked(e: number, omega: number): numbe
 
 /**
  * Mean anomaly at inferior conjunction (mid-transit), radians in (-pi, pi]; see
- * {@link conjunctionMeanAnomalyUnchecked}. Zero for a circular orbit.
+ * {@link conjunctionMeanAnomalyUnchecked}. For a circular orbit it is pi/2 - omega
+ * (mean and true anomaly coincide; omega then only sets the zero of the phase).
  */
 export function conjunctionMeanAnomaly(eccentricity: number, omega: number): number {
   checkE(eccentricity);
