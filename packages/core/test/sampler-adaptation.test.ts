@@ -1,0 +1,167 @@
+import { describe, expect, it } from 'vitest';
+import { createRandomStream } from '../src/random/index.js';
+import {
+  addToWelford,
+  advanceChain,
+  averagedStepSize,
+  createChainState,
+  createWelford,
+  regularisedCovariance,
+  resetWelford,
+  resolveChainSettings,
+  startDualAveraging,
+  updateDualAveraging,
+  warmupSchedule,
+  type WarmupSchedule,
+} from '../src/sampler/index.js';
+import { gaussianWithPrecision } from './support/targets.js';
+
+function checkInvariants(s: WarmupSchedule): void {
+  const w = s.slowWindows;
+  if (w.length === 0) return;
+  expect(w[0][0]).toBe(s.initialFast);
+  expect(w[w.length - 1][1]).toBe(s.warmup - s.terminalFast);
+  for (let k = 1; k < w.length; k++) {
+    expect(w[k][0]).toBe(w[k - 1][1]);
+    // Each window at least doubles the previous one.
+    expect(w[k][1] - w[k][0]).toBeGreaterThanOrEqual(2 * (w[k - 1][1] - w[k - 1][0]));
+  }
+}
+
+describe('warmup schedule', () => {
+  it('uses 75 / 25 doubling / 50 for warmup 1000', () => {
+    // The 75-iteration initial interval, first slow window of 25 and terminal 50 are
+    // the customary defaults of windowed adaptation for 1000 warmup iterations (common practice).
+    const s = warmupSchedule(1000, true);
+    expect(s.initialFast).toBe(75);
+    expect(s.terminalFast).toBe(50);
+    expect(s.slowWindows).toEqual([
+      [75, 100],
+      [100, 150],
+      [150, 250],
+      [250, 450],
+      [450, 950],
+    ]);
+    checkInvariants(s);
+  });
+
+  it('keeps the interval sizes and adds doubling windows for longer warmups', () => {
+    const s = warmupSchedule(2000, true);
+    expect(s.initialFast).toBe(75);
+    expect(s.terminalFast).toBe(50);
+    expect(s.slowWindows).toEqual([
+      [75, 100],
+      [100, 150],
+      [150, 250],
+      [250, 450],
+      [450, 850],
+      [850, 1950],
+    ]);
+    checkInvariants(s);
+  });
+
+  it('scales the sizes in proportion for short warmups', () => {
+    const s = warmupSchedule(100, true);
+    expect(s.initialFast).toBe(8); // round(7.5)
+    expect(s.terminalFast).toBe(5);
+    expect(s.slowWindows).toEqual([
+      [8, 11],
+      [11, 17],
+      [17, 29],
+      [29, 95],
+    ]);
+    for (const w of [20, 37, 150, 333, 999, 1001, 5000]) checkInvariants(warmupSchedule(w, true));
+  });
+
+  it('adapts only the step size below 20 iterations or for the unit metric', () => {
+    expect(warmupSchedule(19, true)).toEqual({ warmup: 19, initialFast: 19, slowWindows: [], terminalFast: 0 });
+    expect(warmupSchedule(1000, false).slowWindows).toEqual([]);
+    expect(warmupSchedule(20, true).slowWindows.length).toBeGreaterThan(0);
+    expect(warmupSchedule(0, true).slowWindows).toEqual([]);
+  });
+
+  it('re-estimates the metric exactly at the end of each slow window', () => {
+    const precision = Float64Array.from([100, 0, 0, 0.01]);
+    const target = gaussianWithPrecision(precision, 2);
+    const settings = resolveChainSettings({ warmup: 1000, draws: 0 });
+    const state = createChainState(target, settings, 0, 5);
+    const changes: number[] = [];
+    let metric = state.metric;
+    for (let t = 0; t < 1000; t++) {
+      advanceChain(target, settings, state);
+      if (state.metric !== metric) {
+        changes.push(t);
+        metric = state.metric;
+      }
+    }
+    expect(changes).toEqual([99, 149, 249, 449, 949]);
+    // The final metric estimates the variances 0.01 and 100 from the 500-draw window:
+    // within 4 se of a variance estimate, σ² sqrt(2 / ESS), taking ESS ≥ 100 (common practice).
+    if (state.metric.kind !== 'diagonal') throw new Error('expected a diagonal metric');
+    const tol = 4 * Math.sqrt(2 / 100);
+    expect(Math.abs(state.metric.inverseMass[0] / 0.01 - 1)).toBeLessThan(tol);
+    expect(Math.abs(state.metric.inverseMass[1] / 100 - 1)).toBeLessThan(tol);
+  });
+});
+
+describe('dual averaging', () => {
+  it('drives the acceptance statistic to its target on a known acceptance curve', () => {
+    // With a deterministic acceptance a(ε) = exp(−ε), the averaged iterate of
+    // Hoffman & Gelman (2014, eq. 6) converges to the root of a(ε) = δ, ε* = −ln δ.
+    const delta = 0.8;
+    const state = startDualAveraging(1);
+    let eps = 1;
+    for (let m = 0; m < 5000; m++) eps = updateDualAveraging(state, Math.exp(-eps), delta);
+    expect(Math.abs(averagedStepSize(state) / -Math.log(delta) - 1)).toBeLessThan(0.02);
+    expect(state.mu).toBeCloseTo(Math.log(10), 14);
+  });
+
+  it('treats a non-finite acceptance statistic as zero (shrinks the step)', () => {
+    const a = startDualAveraging(1);
+    const b = startDualAveraging(1);
+    updateDualAveraging(a, Number.NaN, 0.8);
+    updateDualAveraging(b, 0, 0.8);
+    expect(a).toEqual(b);
+  });
+});
+
+describe('Welford accumulators', () => {
+  it('match a two-pass covariance, with the documented shrinkage', () => {
+    // Two-pass sample covariance as the independent computation (common practice).
+    const rng = createRandomStream('welford');
+    const dim = 3;
+    const n = 50; // ≥ 2·dim, so the dense estimate keeps its off-diagonal terms
+    const xs = Array.from({ length: n }, () => Float64Array.from([rng.normal() * 3 + 1, rng.normal(), rng.normal() + 5]));
+    for (let i = 0; i < n; i++) xs[i][1] += 0.5 * xs[i][0];
+    const dense = createWelford('dense', dim);
+    const diag = createWelford('diagonal', dim);
+    for (const x of xs) {
+      addToWelford(dense, x);
+      addToWelford(diag, x);
+    }
+    const mean = [0, 1, 2].map((j) => xs.reduce((s, x) => s + x[j], 0) / n);
+    const cov = (i: number, j: number): number => xs.reduce((s, x) => s + (x[i] - mean[i]) * (x[j] - mean[j]), 0) / (n - 1);
+    const w = n / (n + 5);
+    const ridge = 1e-3 * (5 / (n + 5));
+    const d = regularisedCovariance(dense)!;
+    const v = regularisedCovariance(diag)!;
+    for (let i = 0; i < dim; i++) {
+      expect(v[i]).toBeCloseTo(w * cov(i, i) + ridge, 12);
+      for (let j = 0; j < dim; j++) {
+        expect(d[i * dim + j]).toBeCloseTo(w * cov(i, j) + (i === j ? ridge : 0), 12);
+      }
+    }
+    resetWelford(dense);
+    expect(dense.count).toBe(0);
+    expect(regularisedCovariance(dense)).toBeNull();
+  });
+
+  it('drops off-diagonal terms when a dense window has fewer than 2·dim draws', () => {
+    const rng = createRandomStream('short window');
+    const w = createWelford('dense', 10);
+    for (let i = 0; i < 19; i++) addToWelford(w, Float64Array.from({ length: 10 }, () => rng.normal()));
+    const c = regularisedCovariance(w)!;
+    expect(c[1]).toBe(0);
+    expect(c[0]).toBeGreaterThan(0);
+  });
+});
