@@ -61,13 +61,14 @@ export function erf(x: number): number {
 /** The complementary error function 1 − erf(x), accurate in the upper tail. */
 export function erfc(x: number): number {
   if (Number.isNaN(x)) return NaN;
-  if (x >= 1.5) return x > 27 ? 0 : Math.exp(-x * x) * erfcScaledLarge(x);
+  if (x >= 1.5) return x > 27 ? 0 : Math.exp(-x * x) * erfcScaledLarge(x); // erfc(27) < 1e-318
   if (x > -1.5) return 1 - erfSeries(x);
   return 2 - erfc(-x);
 }
 
 /** ln erfc(x), finite far into the upper tail (no underflow). */
 export function logErfc(x: number): number {
+  if (x === Infinity) return -Infinity;
   if (x >= 1.5) return -x * x + Math.log(erfcScaledLarge(x));
   return Math.log(erfc(x));
 }
