@@ -1,0 +1,28 @@
+import { varianceComponents } from './geyer.js';
+
+/**
+ * Potential scale reduction of a set of (split) chains, Gelman & Rubin (1992, Statistical
+ * Science 7, 457) in the form of Vehtari et al. (2021, eqs. 3–4):
+ * R-hat = sqrt(var+ / W), var+ = (n-1)/n W + B/n.
+ * Returns NaN when every draw is the same (undefined), +Infinity when each half is constant
+ * but the halves differ (the chains are stuck at different values).
+ */
+export function rhatOfHalves(halves: readonly ArrayLike<number>[]): number {
+  const count = halves.length;
+  const n = halves[0].length;
+  const means = new Float64Array(count);
+  const variances = new Float64Array(count);
+  for (let j = 0; j < count; j++) {
+    const h = halves[j];
+    let s = 0;
+    for (let i = 0; i < n; i++) s += h[i];
+    const m = s / n;
+    let ss = 0;
+    for (let i = 0; i < n; i++) ss += (h[i] - m) * (h[i] - m);
+    means[j] = m;
+    variances[j] = ss / (n - 1);
+  }
+  const { within, plus } = varianceComponents(count, n, means, variances);
+  if (within > 0) return Math.sqrt(plus / within);
+  return plus > 0 ? Infinity : NaN;
+}
