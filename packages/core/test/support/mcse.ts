@@ -69,9 +69,9 @@ export function effectiveSampleSize(chains: readonly Float64Array[]): number {
     previous = p;
     tau += 2 * p;
   }
-  const ess = (m * n) / tau;
   // Vehtari et al. (2021) cap the estimate at N log10(N) for antithetic chains.
-  return Math.min(ess, m * n * Math.log10(m * n));
+  const cap = m * n * Math.log10(m * n);
+  return tau > 0 ? Math.min((m * n) / tau, cap) : cap;
 }
 
 /** Pooled mean, its Monte Carlo standard error and the ESS behind it. */
