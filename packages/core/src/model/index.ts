@@ -45,3 +45,5 @@ export {
   type BackendOptions,
   type TensorFlow,
 } from '../tensorflow/index.js';
+export { findMode, type ModeSearchOptions, type ModeSearchReason, type ModeSearchResult } from './mode/findMode.js';
+export { handWrittenTarget, checkTargetGradient, type GradientCheck, type HandWrittenTargetSpec } from './handWrittenTarget.js';
