@@ -5,8 +5,8 @@
  * folded onto [0, pi] by the odd symmetry E(-M) = -E(M), started with the cubic
  * approximation of Markley (1995, Celestial Mechanics 63, 101, eqs. 5-20) and refined
  * with his fifth-order (quartic-denominator) Householder-type correction. A second
- * correction is applied only when the first one was large, so the iteration count is
- * bounded by `MAX_CORRECTIONS`. The sine and cosine of E are carried through the last
+ * correction is applied only when the first one was large (never observed), so the
+ * iteration count is bounded by `MAX_CORRECTIONS`. The sine and cosine of E are carried through the last
  * correction by angle addition, so callers that need them pay for no extra trig calls.
  */
 import { OrbitParameterError } from './errors.js';
@@ -25,54 +25,29 @@ export const MAX_CORRECTIONS = 3;
  */
 const CONVERGED_STEP = 2e-3;
 
+/** Fifth-order correction of E towards the root of E - e sin E - m (Markley 1995, eqs. 21-25). */
+function correction(E: number, m: number, es: number, ec: number): number {
+  // Successive substitution of the Taylor series of f(E) = E - e sin E - m to fourth order.
+  const f0 = E - es - m;
+  const f1 = 1 - ec;
+  const d3 = (-f0 * f1) / (f1 * f1 - 0.5 * f0 * es);
+  const d4 = -f0 / (f1 + d3 * (0.5 * es + (d3 * ec) / 6));
+  return -f0 / (f1 + d4 * (0.5 * es + d4 * (ec / 6 - (d4 * es) / 24)));
+}
+
 /**
- * Solves Kepler's equation for a mean anomaly folded onto [0, pi]; writes E, sin E,
- * cos E into out[at], out[at + 1], out[at + 2]. No input checks.
+ * Safety net, never reached on 0 <= e < 1 in our tests: further corrections with fresh
+ * sin/cos, at most `MAX_CORRECTIONS - 1` of them. Writes E, sin E, cos E at out[at..].
  */
-function solveFolded(m: number, e: number, out: Float64Array, at: number): void {
-  if (e === 0 || m === 0) {
-    out[at] = m;
-    out[at + 1] = Math.sin(m);
-    out[at + 2] = Math.cos(m);
-    return;
-  }
-  // Markley's starter: a cubic in E whose coefficients interpolate a rational
-  // approximation of sin E across [0, pi] (his eqs. 5-20, rearranged).
-  const oneMinusE = 1 - e;
-  const alpha = MARKLEY_A + (MARKLEY_B * (PI - m)) / (1 + e);
-  const d = 3 * oneMinusE + alpha * e;
-  const ad = alpha * d;
-  const q = 2 * ad * oneMinusE - m * m;
-  const r = (3 * ad * (d - oneMinusE) + m * m) * m;
-  const w = Math.cbrt(Math.abs(r) + Math.sqrt(q * q * q + r * r));
-  const w2 = w * w;
-  let E = ((2 * r * w2) / (w2 * w2 + w2 * q + q * q) + m) / d;
+function refine(E: number, m: number, e: number, out: Float64Array, at: number): void {
   let sinE = Math.sin(E);
   let cosE = Math.cos(E);
-  for (let pass = 0; pass < MAX_CORRECTIONS; pass++) {
-    // Fifth-order correction: successive substitution of the Taylor series of
-    // f(E) = E - e sin E - M to fourth order (Markley 1995, eqs. 21-25).
-    const es = e * sinE;
-    const ec = e * cosE;
-    const f0 = E - es - m;
-    const f1 = 1 - ec;
-    const d3 = (-f0 * f1) / (f1 * f1 - 0.5 * f0 * es);
-    const d4 = -f0 / (f1 + d3 * (0.5 * es + (d3 * ec) / 6));
-    const d5 = -f0 / (f1 + d4 * (0.5 * es + d4 * (ec / 6 - (d4 * es) / 24)));
-    E += d5;
-    if (Math.abs(d5) < CONVERGED_STEP) {
-      // sin/cos(E + d5) by angle addition with the Taylor series of sin d5, cos d5
-      // (truncation below 1e-19 for |d5| < 2e-3).
-      const dd = d5 * d5;
-      const sd = d5 * (1 - (dd / 6) * (1 - dd / 20));
-      const cd = 1 - (dd / 2) * (1 - dd / 12);
-      const s = sinE * cd + cosE * sd;
-      cosE = cosE * cd - sinE * sd;
-      sinE = s;
-      break;
-    }
+  for (let pass = 1; pass < MAX_CORRECTIONS; pass++) {
+    const d = correction(E, m, e * sinE, e * cosE);
+    E += d;
     sinE = Math.sin(E);
     cosE = Math.cos(E);
+    if (Math.abs(d) < 1e-15 * (1 + E)) break;
   }
   out[at] = E;
   out[at + 1] = sinE;
@@ -80,11 +55,20 @@ function solveFolded(m: number, e: number, out: Float64Array, at: number): void 
 }
 
 /**
- * Unchecked solver for hot loops: any finite mean anomaly `M` (radians) and
- * 0 <= e < 1. Writes E (radians, continuous in M: E(M + 2 pi) = E(M) + 2 pi),
- * sin E and cos E into `out[at..at+2]`. The caller guarantees the domain.
+ * Unchecked solver for hot loops with the per-eccentricity constants precomputed:
+ * `oneMinusE` = 1 - e and `markleyB` = {@link markleyConstant}(e). Any finite mean anomaly
+ * `M` (radians), 0 <= e < 1; writes E (radians, continuous in M: E(M + 2 pi) =
+ * E(M) + 2 pi), sin E and cos E into out[at], out[at + 1], out[at + 2].
  */
-export function solveKeplerInto(M: number, e: number, out: Float64Array, at = 0): void {
+export function solveKeplerWithConstants(
+  M: number,
+  e: number,
+  oneMinusE: number,
+  markleyB: number,
+  out: Float64Array,
+  at: number,
+): void {
+  // Reduce to [-pi, pi), keeping the whole turns; fold onto [0, pi] by E(-M) = -E(M).
   let turns = Math.floor((M + PI) / TWO_PI);
   let m = M - turns * TWO_PI;
   if (m >= PI) {
@@ -94,14 +78,63 @@ export function solveKeplerInto(M: number, e: number, out: Float64Array, at = 0)
     m += TWO_PI;
     turns -= 1;
   }
-  if (m < 0) {
-    solveFolded(-m, e, out, at);
-    out[at] = -out[at];
-    out[at + 1] = -out[at + 1];
+  const negative = m < 0;
+  if (negative) m = -m;
+  let E: number;
+  let sinE: number;
+  let cosE: number;
+  if (e === 0 || m === 0) {
+    E = m;
+    sinE = Math.sin(m);
+    cosE = Math.cos(m);
   } else {
-    solveFolded(m, e, out, at);
+    // Markley's starter: a cubic in E whose coefficients interpolate a rational
+    // approximation of sin E across [0, pi] (his eqs. 5-20, rearranged); within 5e-4 rad.
+    const alpha = MARKLEY_A + markleyB * (PI - m);
+    const d = 3 * oneMinusE + alpha * e;
+    const ad = alpha * d;
+    const q = 2 * ad * oneMinusE - m * m;
+    const r = (3 * ad * (d - oneMinusE) + m * m) * m;
+    const w = Math.cbrt(Math.abs(r) + Math.sqrt(q * q * q + r * r));
+    const w2 = w * w;
+    E = ((2 * r * w2) / (w2 * w2 + w2 * q + q * q) + m) / d;
+    sinE = Math.sin(E);
+    cosE = Math.cos(E);
+    const d5 = correction(E, m, e * sinE, e * cosE);
+    E += d5;
+    if (Math.abs(d5) < CONVERGED_STEP) {
+      // sin/cos(E + d5) by angle addition with the Taylor series of sin d5, cos d5
+      // (truncation below 1e-19 for |d5| < 2e-3): no second pair of trig calls.
+      const dd = d5 * d5;
+      const sd = d5 * (1 - (dd / 6) * (1 - dd / 20));
+      const cd = 1 - (dd / 2) * (1 - dd / 12);
+      const s = sinE * cd + cosE * sd;
+      cosE = cosE * cd - sinE * sd;
+      sinE = s;
+    } else {
+      refine(E, m, e, out, at);
+      E = out[at];
+      sinE = out[at + 1];
+      cosE = out[at + 2];
+    }
   }
-  if (turns !== 0) out[at] += turns * TWO_PI;
+  out[at] = (negative ? -E : E) + turns * TWO_PI;
+  out[at + 1] = negative ? -sinE : sinE;
+  out[at + 2] = cosE;
+}
+
+/** The per-eccentricity constant of Markley's starter, 1.6 pi / ((pi^2 - 6)(1 + e)). */
+export function markleyConstant(e: number): number {
+  return MARKLEY_B / (1 + e);
+}
+
+/**
+ * Unchecked solver for hot loops: any finite mean anomaly `M` (radians) and
+ * 0 <= e < 1. Writes E (radians, continuous in M: E(M + 2 pi) = E(M) + 2 pi),
+ * sin E and cos E into `out[at..at+2]`. The caller guarantees the domain.
+ */
+export function solveKeplerInto(M: number, e: number, out: Float64Array, at = 0): void {
+  solveKeplerWithConstants(M, e, 1 - e, MARKLEY_B / (1 + e), out, at);
 }
 
 function checkEccentricity(e: number, field: string): void {

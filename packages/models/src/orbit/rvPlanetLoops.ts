@@ -22,7 +22,7 @@
  * (needed by the root form (sqrt(e) cos omega, sqrt(e) sin omega)).
  */
 import { conjunctionMeanAnomalyPartialsInto } from './anomalies.js';
-import { solveKeplerInto } from './kepler.js';
+import { markleyConstant, solveKeplerWithConstants } from './kepler.js';
 import {
   D_CW,
   D_E,
@@ -64,12 +64,13 @@ export function addPlanetCurve(
   const cw = dec[o + D_CW];
   const root = dec[o + D_ROOT];
   const oneMinusE = 1 - e;
+  const mb = markleyConstant(e);
   const ecw = e * cw;
   const s = scratch;
   const N = times.length;
   for (let i = 0; i < N; i++) {
     const dt = times[i] - tc;
-    solveKeplerInto(n * dt + Mc, e, s, 0);
+    solveKeplerWithConstants(n * dt + Mc, e, oneMinusE, mb, s, 0);
     const sinE = s[1];
     const cosE = s[2];
     let D: number;
@@ -211,6 +212,7 @@ export function planetVjpFused(
   const cw = dec[o + D_CW];
   const root = dec[o + D_ROOT];
   const oneMinusE = 1 - e;
+  const mb = markleyConstant(e);
   const inv1mE2 = 1 / (root * root);
   const ecw = e * cw;
   const Kcw = K * cw;
@@ -224,7 +226,7 @@ export function planetVjpFused(
   const N = times.length;
   for (let i = 0; i < N; i++) {
     const dt = times[i] - tc;
-    solveKeplerInto(n * dt + Mc, e, s, 0);
+    solveKeplerWithConstants(n * dt + Mc, e, oneMinusE, mb, s, 0);
     const sinE = s[1];
     const cosE = s[2];
     let D: number;
