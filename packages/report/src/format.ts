@@ -49,10 +49,23 @@ export function tickLabels(values: number[], step: number): TickLabels {
   let offsetText = '';
   const largest = Math.max(...values.map(Math.abs));
   if (largest > 0 && step / largest < 1e-4) {
-    const span = values[values.length - 1] - values[0] + step;
-    const unit = 10 ** Math.ceil(Math.log10(span));
-    offset = Math.floor(values[0] / unit) * unit;
-    offsetText = withMinus(Number(offset.toPrecision(15)).toString());
+    // The roundest number that leaves every label within 100 steps of it; at
+    // each rounding, an offset at or below all ticks (labels ≥ 0) is preferred,
+    // else the nearest: 3.2 for ticks 3.199998 … 3.200014 spaced 2e-6.
+    const lo = values[0];
+    const mid = (values[0] + values[values.length - 1]) / 2;
+    const fits = (c: number) => values.every((v) => Math.abs(v - c) <= 100 * step);
+    for (let q = Math.ceil(Math.log10(largest)); q > Math.log10(step) - 1; q--) {
+      const unit = 10 ** q;
+      const below = Math.floor(lo / unit) * unit;
+      const nearest = Math.round(mid / unit) * unit;
+      const pick = fits(below) ? below : fits(nearest) ? nearest : undefined;
+      if (pick !== undefined) {
+        offset = Number(pick.toPrecision(15));
+        break;
+      }
+    }
+    offsetText = offset === 0 ? '' : withMinus(offset.toString());
   }
   const shifted = values.map((v) => Number((v - offset).toPrecision(12)));
   const biggest = Math.max(...shifted.map(Math.abs));
@@ -92,13 +105,14 @@ export function formatToScale(value: number | undefined, scale: number | undefin
   return withMinus(value.toFixed(Math.min(decimals, 14)));
 }
 
-/** A value to `digits` significant digits, exponent notation for extremes. */
+/** A value to `digits` significant digits (trailing zeros kept), exponent notation for extremes. */
 export function formatSignificant(value: number | undefined, digits = 3): string {
   if (value === undefined || !Number.isFinite(value)) return '\u2014';
   if (value === 0) return '0';
   const magnitude = Math.abs(value);
   if (magnitude >= 1e6 || magnitude < 1e-3) return withMinus(value.toExponential(digits - 1));
-  return withMinus(Number(value.toPrecision(digits)).toString());
+  if (magnitude >= 10 ** digits) return withMinus(Math.round(value).toString());
+  return withMinus(value.toPrecision(digits));
 }
 
 /** A count or effective sample size, rounded to an integer. */

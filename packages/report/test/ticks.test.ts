@@ -81,11 +81,24 @@ describe('tickLabels', () => {
     l.labels.forEach((s, i) => expect(Number(s) * 1e-6 + l.offset).toBeCloseTo(t.values[i], 13));
     expect(axisTitle('period', 'd', l.offsetText, l.exponent)).toBe('period \u2212 3.2 [d] \u00d710\u207b\u2076');
   });
-  it('writes large times with an offset instead of seven digits', () => {
-    const t = niceTicks(2459000.1, 2459000.9, 5);
+  it('takes the round offset 3.2 for ticks on both sides of it', () => {
+    const t = niceTicks(3.199991, 3.200009, 5);
     const l = tickLabels(t.values, t.step);
-    expect(l.offset).toBe(2459000);
-    expect(new Set(l.labels).size).toBe(l.labels.length);
-    l.labels.forEach((s, i) => expect(Number(s) * 10 ** l.exponent + l.offset).toBeCloseTo(t.values[i], 6));
+    expect(l.offsetText).toBe('3.2');
+    expect(l.exponent).toBe(-6);
+    expect(l.labels).toContain('\u22125');
+    expect(l.labels).toContain('0');
+  });
+  it('writes large times with an offset instead of seven digits', () => {
+    for (const [lo, hi] of [
+      [2459000.1, 2459000.9],
+      [2459000.1, 2459012.7],
+    ]) {
+      const t = niceTicks(lo, hi, 5);
+      const l = tickLabels(t.values, t.step);
+      expect(l.offset).toBe(2459000);
+      expect(new Set(l.labels).size).toBe(l.labels.length);
+      l.labels.forEach((s, i) => expect(Number(s) * 10 ** l.exponent + l.offset).toBeCloseTo(t.values[i], 6));
+    }
   });
 });

@@ -19,10 +19,11 @@ p { margin: 4px 0 8px; }
 nav.contents { font-size: 0.9em; margin: 6px 0 0; }
 nav.contents a { color: #0b4f8a; margin-right: 14px; }
 table { border-collapse: collapse; font-variant-numeric: tabular-nums; font-size: 0.9em; }
-th, td { padding: 3px 9px; border-bottom: 1px solid #e0e0e0; text-align: right; white-space: nowrap; }
+th, td { padding: 3px 7px; border-bottom: 1px solid #e0e0e0; text-align: right; white-space: nowrap; }
 th { background: #efefec; font-weight: 600; }
 th:first-child, td:first-child, td.text, th.text { text-align: left; }
-td.text { white-space: normal; min-width: 15em; }
+td.text { white-space: normal; }
+td.check { min-width: 12em; }
 .table-scroll { overflow-x: auto; max-width: 100%; }
 tr.flagged td { background: #fff1d6; }
 tr.flagged td:first-child { box-shadow: inset 4px 0 0 #b35900; }

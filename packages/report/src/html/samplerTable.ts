@@ -19,7 +19,7 @@ export function samplerTable(health: readonly ChainHealth[]): string {
         `<tr${flags.length ? ' class="flagged"' : ''}><td>${c + 1}</td><td>${formatCount(h.draws)}</td>` +
         `<td>${formatCount(h.divergences)}</td><td>${formatCount(h.depthLimitHits)}</td><td>${formatCount(h.maxTreeDepthSeen)}</td>` +
         `<td>${formatSignificant(h.meanLeapfrogSteps, 3)}</td><td>${formatSignificant(h.stepSize, 3)}</td>` +
-        `<td>${formatFixed(h.meanAcceptance, 2)}</td><td>${formatFixed(h.ebfmi, 2)}</td><td class="text">${check}</td></tr>`
+        `<td>${formatFixed(h.meanAcceptance, 2)}</td><td>${formatFixed(h.ebfmi, 2)}</td><td class="text check">${check}</td></tr>`
       );
     })
     .join('\n');

@@ -27,7 +27,7 @@ export function summaryTable(rows: readonly SummaryRow[], units: Record<string, 
         `<td>${formatCount(r.essBulk)}</td>`,
         `<td>${formatCount(r.essTail)}</td>`,
         `<td>${formatFixed(r.rhat, 3)}</td>`,
-        `<td class="text">${check}</td>`,
+        `<td class="text check">${check}</td>`,
       ];
       return `<tr${flags.length ? ' class="flagged"' : ''} data-quantity="${escapeText(r.name)}">${cells.join('')}</tr>`;
     })

@@ -81,7 +81,7 @@ export function pairPlot(options: PairPlotOptions): string {
         for (let b = 0; b < bins; b++) d += `V${px(ys(counts[b]))}H${px(xs(domains[col][0] + (b + 1) * bw))}`;
         d += `V${px(bottom(box))}Z`;
         out += element('path', { class: 'pair-histogram', d, fill: okabeIto.blue, 'fill-opacity': 0.35, stroke: okabeIto.blue, 'stroke-width': 1 });
-        out += text(box.left + 4, box.top + 12, options.names[col], { class: 'cell-label' });
+        out += text(box.left + 4, box.top + 12, options.names[col], { class: 'cell-label', ...fitText(options.names[col], cell - 8) });
       } else if (row > col) {
         const xs = linearScale(domains[col], [box.left, right(box)]);
         const ys = linearScale(domains[row], [bottom(box), box.top]);

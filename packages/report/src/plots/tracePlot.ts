@@ -31,7 +31,7 @@ export function tracePlot(options: TracePlotOptions): string {
   const height = options.height ?? 200;
   const maxPoints = options.maxPoints ?? 600;
   const n = options.chains[0]?.length ?? 0;
-  const box: Box = { left: 70, top: 10, width: width - 70 - 14, height: height - 10 - STRIP - 44 };
+  const box: Box = { left: 70, top: 18, width: width - 70 - 14, height: height - 18 - STRIP - 44 };
 
   const x = makeAxis([0, Math.max(1, n - 1)], [box.left, right(box)], 'draw after warmup', undefined, 6);
   const y = makeAxis(padDomain(extent(options.chains)), [bottom(box), box.top], options.name, options.unit, 5);
@@ -74,7 +74,7 @@ export function tracePlot(options: TracePlotOptions): string {
     strip += element('path', { class: 'divergent-marks', d, stroke: ink.divergent, 'stroke-width': 1.2, fill: 'none' });
   }
   if (divergentCount > 0) {
-    strip += text(right(box) - 4, box.top + 12, `${divergentCount} divergent: ticks below`, { 'text-anchor': 'end', class: 'note' });
+    strip += text(right(box), box.top - 5, `${divergentCount} divergent: ticks below the plot`, { 'text-anchor': 'end', class: 'note' });
   }
 
   const inner =
