@@ -68,12 +68,12 @@ export function separationOverA(eccentricAnomaly: number, eccentricity: number):
 }
 
 /**
- * Mean anomaly at inferior conjunction M_c (radians, in (-pi, pi]) for an orbit of
+ * Mean anomaly at inferior conjunction M_c (radians, in [-pi, pi]) for an orbit of
  * eccentricity e and argument of periastron omega (radians): f_c = pi/2 - omega,
  * E_c from f_c by the half-angle form, M_c = E_c - e sin E_c. No input checks.
  */
 export function conjunctionMeanAnomalyUnchecked(e: number, omega: number): number {
-  // f_c / 2 = pi/4 - omega/2; reduce f_c to (-pi, pi] first so that M_c is canonical.
+  // Reduce f_c = pi/2 - omega to [-pi, pi] first so that M_c is canonical.
   let fc = 0.5 * Math.PI - omega;
   fc -= 2 * Math.PI * Math.round(fc / (2 * Math.PI));
   const h = 0.5 * fc;
@@ -82,7 +82,7 @@ export function conjunctionMeanAnomalyUnchecked(e: number, omega: number): numbe
 }
 
 /**
- * Mean anomaly at inferior conjunction (mid-transit), radians in (-pi, pi]; see
+ * Mean anomaly at inferior conjunction (mid-transit), radians in [-pi, pi]; see
  * {@link conjunctionMeanAnomalyUnchecked}. For a circular orbit it is pi/2 - omega
  * (mean and true anomaly coincide; omega then only sets the zero of the phase).
  */

@@ -3,7 +3,7 @@
  * of periastron tp. Times in days relative to the caller's float64 reference epoch.
  *
  * M(t) = 2 pi (t - tc) / P + M_c, so tp = tc - P M_c / (2 pi), with M_c the mean anomaly
- * at conjunction in (-pi, pi]: the periastron passage returned is the one nearest to tc
+ * at conjunction in [-pi, pi]: the periastron passage returned is the one nearest to tc
  * (within half a period).
  */
 import { z } from 'zod';
