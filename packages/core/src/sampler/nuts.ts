@@ -161,10 +161,12 @@ function buildSubtree(ws: NutsWorkspace, depth: number, point: PhasePoint, eps: 
   half.outerV = t;
   if (!buildSubtree(ws, depth - 1, point, eps)) return false;
   // Checks across the two halves: first half plus the second's first point, and the
-  // first half's last point plus the second half.
+  // first half's last point plus the second half. For two single points (depth 1) both
+  // coincide with the check of the whole subtree below, so they are skipped.
   let persists =
-    trajectoryPersists(level.rho, half.innerP, level.innerV, half.innerV) &&
-    trajectoryPersists(half.rho, level.midP, level.midV, half.outerV);
+    depth === 1 ||
+    (trajectoryPersists(level.rho, half.innerP, level.innerV, half.innerV) &&
+      trajectoryPersists(half.rho, level.midP, level.midV, half.outerV));
   const rho = level.rho;
   const rho2 = half.rho;
   for (let i = 0; i < rho.length; i++) rho[i] += rho2[i];
@@ -242,9 +244,12 @@ export function nutsTransition(
     logWeight = logAddExp(logWeight, w);
 
     const level = ws.levels[depth];
+    // Checks across the old trajectory and the new subtree (redundant when both are
+    // single points, at depth 0), then the check of the whole trajectory.
     let persists =
-      trajectoryPersists(ws.rho, level.innerP, other.velocity, level.innerV) &&
-      trajectoryPersists(level.rho, ws.nearP, ws.nearV, end.velocity);
+      depth === 0 ||
+      (trajectoryPersists(ws.rho, level.innerP, other.velocity, level.innerV) &&
+        trajectoryPersists(level.rho, ws.nearP, ws.nearV, end.velocity));
     const rho = ws.rho;
     const rhoNew = level.rho;
     for (let i = 0; i < rho.length; i++) rho[i] += rhoNew[i];
