@@ -111,12 +111,12 @@ describe('sky-projected separation', () => {
     const out = new Float64Array(7);
     const keys = ['period', 'tc', 'eccentricity', 'omega', 'scaledSemiMajorAxis'] as const;
     for (const { name, orbit } of ORBITS) {
-      const angleKey = orbit.impactParameter !== undefined ? 'impactParameter' : 'inclination';
-      const base = { eccentricity: 0.1, omega: 0.4, ...orbit };
+      const angleKey: 'impactParameter' | 'inclination' = orbit.impactParameter !== undefined ? 'impactParameter' : 'inclination';
+      const base: TransitOrbit = { eccentricity: 0.1, omega: 0.4, ...orbit };
       for (const dt of [-0.07, -0.01, 0.003, 0.05, 0.21 * orbit.period]) {
         const t = orbit.tc + dt;
         skySeparationWithPartials(t, base, out);
-        const slots = [...keys, angleKey];
+        const slots: (keyof TransitOrbit)[] = [...keys, angleKey];
         slots.forEach((key, s) => {
           const h = 1e-6 * Math.max(1, Math.abs(base[key] as number));
           const plus = skySeparation(t, { ...base, [key]: (base[key] as number) + h }).z;
