@@ -12,7 +12,7 @@ export {
 export { choleskyLower } from './cholesky.js';
 export { createPhasePoint, copyPhasePoint, hamiltonian, type PhasePoint } from './phasePoint.js';
 export { leapfrogStep } from './leapfrog.js';
-export { trajectoryPersists } from './uTurn.js';
+export { trajectoryPersists, mergeSegments } from './uTurn.js';
 export { nutsTransition, createNutsWorkspace, divergenceThreshold, type NutsWorkspace } from './nuts.js';
 export { hmcTransition, createHmcWorkspace, type HmcWorkspace, type StaticPath } from './staticHmc.js';
 export { heuristicStepSize } from './stepSizeHeuristic.js';

@@ -5,7 +5,7 @@ import { leapfrogStep } from './leapfrog.js';
 import { applyInverseMass, drawMomentum, kineticEnergy, type Metric } from './metric.js';
 import { copyPhasePoint, createPhasePoint, type PhasePoint } from './phasePoint.js';
 import type { TransitionStats } from './transitionStats.js';
-import { trajectoryPersists } from './uTurn.js';
+import { mergeSegments } from './uTurn.js';
 
 /** Energy error H − H₀ above which a trajectory is called divergent (common practice). */
 export const divergenceThreshold = 1000;
@@ -160,17 +160,20 @@ function buildSubtree(ws: NutsWorkspace, depth: number, point: PhasePoint, eps: 
   level.midV = half.outerV;
   half.outerV = t;
   if (!buildSubtree(ws, depth - 1, point, eps)) return false;
-  // Checks across the two halves: first half plus the second's first point, and the
-  // first half's last point plus the second half. For two single points (depth 1) both
-  // coincide with the check of the whole subtree below, so they are skipped.
-  let persists =
-    depth === 1 ||
-    (trajectoryPersists(level.rho, half.innerP, level.innerV, half.innerV) &&
-      trajectoryPersists(half.rho, level.midP, level.midV, half.outerV));
-  const rho = level.rho;
-  const rho2 = half.rho;
-  for (let i = 0; i < rho.length; i++) rho[i] += rho2[i];
-  persists = persists && trajectoryPersists(rho, null, level.innerV, half.outerV);
+  // Merge the halves: the whole subtree, and (above depth 1, where they would repeat
+  // that check) the first half plus the second's first point and the first half's last
+  // point plus the second half.
+  const persists = mergeSegments(
+    level.rho,
+    half.rho,
+    level.innerV,
+    level.midP,
+    level.midV,
+    half.innerP,
+    half.innerV,
+    half.outerV,
+    depth > 1,
+  );
   t = level.outerP;
   level.outerP = half.outerP;
   half.outerP = t;
@@ -244,16 +247,19 @@ export function nutsTransition(
     logWeight = logAddExp(logWeight, w);
 
     const level = ws.levels[depth];
-    // Checks across the old trajectory and the new subtree (redundant when both are
-    // single points, at depth 0), then the check of the whole trajectory.
-    let persists =
-      depth === 0 ||
-      (trajectoryPersists(ws.rho, level.innerP, other.velocity, level.innerV) &&
-        trajectoryPersists(level.rho, ws.nearP, ws.nearV, end.velocity));
-    const rho = ws.rho;
-    const rhoNew = level.rho;
-    for (let i = 0; i < rho.length; i++) rho[i] += rhoNew[i];
-    persists = persists && trajectoryPersists(rho, null, other.velocity, end.velocity);
+    // The old trajectory (far end `other`, near end saved in nearP/nearV) merged with
+    // the new subtree (first point level.inner, last point `end`).
+    const persists = mergeSegments(
+      ws.rho,
+      level.rho,
+      other.velocity,
+      ws.nearP,
+      ws.nearV,
+      level.innerP,
+      level.innerV,
+      end.velocity,
+      depth > 0,
+    );
     if (!persists) break;
   }
 

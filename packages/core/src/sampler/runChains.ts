@@ -54,8 +54,10 @@ export interface RunResult {
   readonly elapsed: number;
 }
 
-/** Iterations run per chain between yields to the event loop. */
+/** Iterations run per chain between yields to the event loop, at most. */
 const iterationsPerSlice = 50;
+/** A slice also ends after this many milliseconds, so expensive targets stay responsive. */
+const millisecondsPerSlice = 100;
 
 function checkTarget(target: Target): void {
   if (target === null || typeof target !== 'object') {
@@ -84,9 +86,11 @@ function abortReason(signal: AbortSignal): unknown {
 
 /**
  * Samples `target` with several independent chains in the calling thread: warmup
- * (adaptation) then draws, NUTS or static HMC. Chains take turns in slices of 50
- * iterations, with a yield to the event loop between slices so progress callbacks
- * and abort signals are served. Same seed and options give bit-identical results.
+ * (adaptation) then draws, NUTS or static HMC. Chains take turns in slices of at most
+ * 50 iterations or 100 ms, with a yield to the event loop after each slice so progress
+ * callbacks and abort signals are served. Each chain depends only on (seed, chain
+ * index), so the same seed and options give bit-identical results however the chains
+ * are scheduled. Errors thrown by the target propagate.
  *
  * Throws (rejects with) `SamplerOptionsError` for invalid options and
  * `InitialisationError` when a chain finds no finite starting point.
@@ -111,6 +115,7 @@ export async function runChains(target: Target, options: RunOptions = {}): Promi
       }
     });
   }
+  if (o.signal?.aborted) throw abortReason(o.signal);
   const seed = o.seed ?? randomInt(0, 2 ** 47);
   const outputs = target.outputs;
   const nOut = outputs?.names.length ?? 0;
@@ -141,7 +146,9 @@ export async function runChains(target: Target, options: RunOptions = {}): Promi
       const state = states[c];
       if (chainPhase(settings, state) === 'done') continue;
       let lastPhase: 'warmup' | 'sampling' = 'warmup';
+      const sliceStart = performance.now();
       for (let k = 0; k < iterationsPerSlice && state.iteration < total; k++) {
+        if (k > 0 && performance.now() - sliceStart > millisecondsPerSlice) break;
         const step = advanceChain(target, settings, state, workspaces[c]);
         lastPhase = step.phase;
         const section = step.phase === 'warmup' ? warm : main;
@@ -164,9 +171,9 @@ export async function runChains(target: Target, options: RunOptions = {}): Promi
         divergences: state.divergences.warmup + state.divergences.sampling,
         stepSize: state.stepSize,
       });
+      await new Promise<void>((resolve) => setImmediate(resolve));
+      if (o.signal?.aborted) throw abortReason(o.signal);
     }
-    await new Promise<void>((resolve) => setImmediate(resolve));
-    if (o.signal?.aborted) throw abortReason(o.signal);
   }
 
   const result: RunResult = {

@@ -31,3 +31,61 @@ export function trajectoryPersists(
   }
   return a > 0 && b > 0;
 }
+
+/**
+ * Merges two adjacent trajectory segments and applies the no-U-turn checks to the
+ * result in one pass: `rhoFirst` becomes ρ₁ + ρ₂ (in place), and the return value says
+ * whether all of these hold (each as in {@link trajectoryPersists}):
+ * - the merged segment, with the velocities at `firstStart` and `secondEnd`;
+ * - with `across`: the first segment plus the second's first point (ρ₁ + p(secondStart),
+ *   velocities at firstStart and secondStart), and the first's last point plus the
+ *   second segment (ρ₂ + p(firstEnd), velocities at firstEnd and secondEnd).
+ *
+ * "First" is the segment nearer the trajectory's starting point, in the direction of
+ * growth. The checks across segments are redundant when both are single points.
+ */
+export function mergeSegments(
+  rhoFirst: Float64Array,
+  rhoSecond: Float64Array,
+  vFirstStart: Float64Array,
+  pFirstEnd: Float64Array,
+  vFirstEnd: Float64Array,
+  pSecondStart: Float64Array,
+  vSecondStart: Float64Array,
+  vSecondEnd: Float64Array,
+  across: boolean,
+): boolean {
+  const n = rhoFirst.length;
+  let a0 = 0;
+  let b0 = 0;
+  if (!across) {
+    for (let i = 0; i < n; i++) {
+      const r = rhoFirst[i] + rhoSecond[i];
+      rhoFirst[i] = r;
+      a0 += r * vFirstStart[i];
+      b0 += r * vSecondEnd[i];
+    }
+    return a0 > 0 && b0 > 0;
+  }
+  let a1 = 0;
+  let b1 = 0;
+  let a2 = 0;
+  let b2 = 0;
+  for (let i = 0; i < n; i++) {
+    const r1 = rhoFirst[i];
+    const r2 = rhoSecond[i];
+    const r = r1 + r2;
+    rhoFirst[i] = r;
+    const vfs = vFirstStart[i];
+    const vse = vSecondEnd[i];
+    a0 += r * vfs;
+    b0 += r * vse;
+    const e1 = r1 + pSecondStart[i];
+    a1 += e1 * vfs;
+    b1 += e1 * vSecondStart[i];
+    const e2 = r2 + pFirstEnd[i];
+    a2 += e2 * vFirstEnd[i];
+    b2 += e2 * vse;
+  }
+  return a0 > 0 && b0 > 0 && a1 > 0 && b1 > 0 && a2 > 0 && b2 > 0;
+}
