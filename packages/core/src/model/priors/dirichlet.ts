@@ -51,7 +51,10 @@ export function dirichlet(concentration: number | readonly number[]): VectorPrio
       let lp = cachedC;
       for (let i = 0; i < n; i++) {
         const a = at(i);
-        if (a !== 1) lp += (a - 1) * Math.log(x[off + i]);
+        const xi = x[off + i];
+        // An element rounded to 0 with α < 1 would give +∞; treat it as outside (see beta).
+        if (xi === 0 && a < 1) return -Infinity;
+        if (a !== 1) lp += (a - 1) * Math.log(xi);
       }
       return lp;
     },
