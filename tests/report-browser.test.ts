@@ -37,6 +37,50 @@ interface PlotInfo {
   emptyData: number;
 }
 
+interface Collected {
+  plots: PlotInfo[];
+  scripts: number;
+  headings: string[];
+  title: string;
+}
+
+/**
+ * Runs inside the page (as text, since the project compiles without DOM types):
+ * for each svg.plot, its size, whether its markup parses as SVG on its own, and
+ * its data elements (paths, polylines and dots with a data class) with geometry.
+ */
+const COLLECT = `(() => {
+  const dataClasses = ['trace-line', 'rank-bars', 'pair-points', 'pair-histogram', 'pair-divergent', 'model-draw',
+    'data-points', 'data-errors', 'residual-points', 'value-dot', 'depth-bars', 'divergent-marks'];
+  const selector = dataClasses.map((c) => '.' + c).join(',');
+  const plots = [];
+  for (const svg of document.querySelectorAll('svg.plot')) {
+    const box = svg.getBoundingClientRect();
+    const parsed = new DOMParser().parseFromString(svg.outerHTML, 'image/svg+xml');
+    let withGeometry = 0;
+    let empty = 0;
+    const data = svg.querySelectorAll(selector);
+    for (const el of data) {
+      const raw = el.getAttribute('d') ?? el.getAttribute('points') ?? (el.tagName === 'circle' ? 'c' : '');
+      if (raw.trim() === '') empty++;
+      const b = el.getBBox();
+      // A dot or a vertical tick has zero width or zero height, never both.
+      if (b.width > 0 || b.height > 0) withGeometry++;
+    }
+    plots.push({
+      kind: svg.getAttribute('data-plot') ?? '',
+      width: box.width,
+      height: box.height,
+      parsesAsSvg: parsed.getElementsByTagName('parsererror').length === 0,
+      dataElements: data.length,
+      dataWithGeometry: withGeometry,
+      emptyData: empty,
+    });
+  }
+  const headings = Array.from(document.querySelectorAll('.quantity h3')).map((h) => h.textContent ?? '');
+  return { plots, scripts: document.scripts.length, headings, title: document.title };
+})()`;
+
 describe.runIf(run)('report in headless Chromium', () => {
   // playwright-core's launch() gives every browser a fresh temporary profile.
   let browser: Browser;
@@ -79,50 +123,7 @@ describe.runIf(run)('report in headless Chromium', () => {
     page.on('pageerror', (e) => problems.push(String(e)));
     await page.goto(pathToFileURL(path).href, { waitUntil: 'load' });
 
-    const result = await page.evaluate(() => {
-      const dataClasses = [
-        'trace-line',
-        'rank-bars',
-        'pair-points',
-        'pair-histogram',
-        'pair-divergent',
-        'model-draw',
-        'data-points',
-        'data-errors',
-        'residual-points',
-        'value-dot',
-        'depth-bars',
-        'divergent-marks',
-      ];
-      const plots: PlotInfo[] = [];
-      for (const svg of Array.from(document.querySelectorAll('svg.plot'))) {
-        const box = svg.getBoundingClientRect();
-        const parsed = new DOMParser().parseFromString(svg.outerHTML, 'image/svg+xml');
-        const selector = dataClasses.map((c) => `.${c}`).join(',');
-        const data = Array.from(svg.querySelectorAll<SVGGraphicsElement>(selector));
-        let withGeometry = 0;
-        let empty = 0;
-        for (const el of data) {
-          const raw = el.getAttribute('d') ?? el.getAttribute('points') ?? (el.tagName === 'circle' ? 'c' : '');
-          if (raw.trim() === '') empty++;
-          const b = el.getBBox();
-          // A dot or a vertical tick has zero width or height but not both; a
-          // circle or a bar has both.
-          if (b.width > 0 || b.height > 0) withGeometry++;
-        }
-        plots.push({
-          kind: svg.getAttribute('data-plot') ?? '',
-          width: box.width,
-          height: box.height,
-          parsesAsSvg: parsed.getElementsByTagName('parsererror').length === 0,
-          dataElements: data.length,
-          dataWithGeometry: withGeometry,
-          emptyData: empty,
-        });
-      }
-      const headings = Array.from(document.querySelectorAll('.quantity h3')).map((h) => h.textContent ?? '');
-      return { plots, scripts: document.scripts.length, headings, title: document.title };
-    });
+    const result = (await page.evaluate(COLLECT)) as Collected;
 
     expect(requests).toEqual([]);
     expect(problems).toEqual([]);

@@ -135,8 +135,10 @@ export interface PlotLimits {
   pairPoints?: number;
   /** Model draws per fit panel (default 40). */
   modelDraws?: number;
-  /** Points per model curve (default 400). */
+  /** Points per model curve (default 240). */
   curvePoints?: number;
+  /** Data points per group in a fit panel (default 4000); more are thinned evenly and the legend says so. */
+  dataPoints?: number;
   /** Bins of the rank histograms (default: 20, fewer for short chains). */
   rankBins?: number;
 }

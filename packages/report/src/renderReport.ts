@@ -169,6 +169,7 @@ export function renderReport(raw: ReportInput): string {
           `<figure class="fit"><h3>${escapeText(panel.title)}</h3>${fitPanel(panel, {
             maxModelDraws: limits.modelDraws,
             curvePoints: limits.curvePoints,
+            maxDataPoints: limits.dataPoints,
           })}</figure>`,
       )
       .join('\n');

@@ -147,6 +147,7 @@ const schema = z.strictObject({
       pairPoints: positiveInt.optional(),
       modelDraws: nonNegativeInt.optional(),
       curvePoints: z.number().int().min(4).optional(),
+      dataPoints: positiveInt.optional(),
       rankBins: z.number().int().min(2).optional(),
     })
     .optional(),

@@ -15,7 +15,7 @@ import { groupShape, markerPath } from './markers.js';
 export interface FitPanelOptions {
   /** Model draws drawn at most (default 40), evenly chosen among those given. */
   maxModelDraws?: number;
-  /** Points per model curve (default 400), min/max per bin so dips are kept. */
+  /** Points per model curve (default 240), min/max per bin so dips are kept. */
   curvePoints?: number;
   /** Data points drawn per group at most (default 4000), evenly chosen. */
   maxDataPoints?: number;
@@ -92,7 +92,7 @@ function legend(panel: FitPanel, modelCount: number, totalModel: number, maxData
 export function fitPanel(panel: FitPanel, options: FitPanelOptions = {}): string {
   const width = options.width ?? 555;
   const maxModel = options.maxModelDraws ?? 40;
-  const curvePoints = options.curvePoints ?? 400;
+  const curvePoints = options.curvePoints ?? 240;
   const maxData = options.maxDataPoints ?? 4000;
   const hasResiduals = (panel.residuals?.length ?? 0) > 0;
   const legendHeight = 24;
