@@ -2,6 +2,11 @@ import { describe, expect, it } from 'vitest';
 import { createRandomStream } from '../src/random/index.js';
 import {
   addToWelford,
+  copyPhasePoint,
+  createPhasePoint,
+  heuristicStepSize,
+  identityMetric,
+  leapfrogStep,
   advanceChain,
   averagedStepSize,
   createChainState,
@@ -14,7 +19,7 @@ import {
   warmupSchedule,
   type WarmupSchedule,
 } from '../src/sampler/index.js';
-import { gaussianWithPrecision } from './support/targets.js';
+import { gaussianWithPrecision, standardNormal } from './support/targets.js';
 
 function checkInvariants(s: WarmupSchedule): void {
   const w = s.slowWindows;
@@ -163,5 +168,40 @@ describe('Welford accumulators', () => {
     const c = regularisedCovariance(w)!;
     expect(c[1]).toBe(0);
     expect(c[0]).toBeGreaterThan(0);
+  });
+});
+
+describe('heuristic initial step size', () => {
+  it('returns a step where the one-step acceptance ratio crosses 1/2 (Hoffman & Gelman 2014, alg. 4)', () => {
+    // Algorithm 4 doubles (halves) ε while the acceptance ratio of one leapfrog step
+    // with a fixed momentum stays above (below) 1/2; the ratio at the returned ε is on
+    // the other side of 1/2 from the ratio at the previous ε.
+    const target = standardNormal(5);
+    const metric = identityMetric('unit', 5);
+    const rng = createRandomStream('heuristic');
+    for (const [startEps, q] of [
+      [1e-4, [0.1, -0.2, 0.3, 0.5, -1]],
+      [50, [2, -1, 0.3, 0.5, -1]],
+    ] as const) {
+      const start = createPhasePoint(5);
+      const trial = createPhasePoint(5);
+      start.position.set(q);
+      start.logDensity = target.logDensityGrad(start.position, start.gradient);
+      const eps = heuristicStepSize(target, metric, rng, startEps, start, trial);
+      const logRatio = (e: number): number => {
+        copyPhasePoint(start, trial);
+        leapfrogStep(target, metric, e, trial);
+        return start.kinetic - start.logDensity - (trial.kinetic - trial.logDensity);
+      };
+      const up = startEps < 1;
+      const previous = up ? eps / 2 : eps * 2;
+      if (up) {
+        expect(logRatio(previous)).toBeGreaterThan(-Math.LN2);
+        expect(logRatio(eps)).toBeLessThanOrEqual(-Math.LN2);
+      } else {
+        expect(logRatio(previous)).toBeLessThan(-Math.LN2);
+        expect(logRatio(eps)).toBeGreaterThanOrEqual(-Math.LN2);
+      }
+    }
   });
 });
