@@ -1,6 +1,6 @@
 import { quantileOfSorted } from './quantile.js';
 import { bulkScores, foldedScores, indicator, loadQuantity } from './quantitySteps.js';
-import { rhatOfHalves } from './rhatOfHalves.js';
+import { combineRhat, rhatOfHalves } from './rhatOfHalves.js';
 import { splitEssPair } from './seriesEss.js';
 import { splitHalves } from './splitChains.js';
 import type { DiagnosticsWorkspace } from './workspace.js';
@@ -45,7 +45,7 @@ export function diagnoseQuantity(ws: DiagnosticsWorkspace, chains: readonly Floa
   const [lowEss, highEss] = splitEssPair(ws, low, high);
   return {
     ...base,
-    rhat: Math.max(rhatBulk, rhatFolded),
+    rhat: combineRhat(rhatBulk, rhatFolded),
     rhatBulk,
     rhatFolded,
     bulkEss,

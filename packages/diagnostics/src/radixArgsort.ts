@@ -6,6 +6,7 @@
  * flipped and non-negative numbers have the sign bit flipped (Knuth, The Art of Computer
  * Programming vol. 3, sec. 5.2.5, for LSD radix sorting; the sign trick is common practice).
  * -0 sorts just before +0; they compare equal, so tie handling is unaffected.
+ * Short inputs (below RADIX_MIN_LENGTH) are sorted by comparing values instead.
  */
 
 /** Reusable buffers for sorting up to `capacity` values. */
@@ -17,8 +18,12 @@ export interface RadixSortBuffers {
   readonly hiB: Uint32Array;
   readonly loB: Uint32Array;
   readonly idxB: Uint32Array;
-  readonly counts: Uint32Array;
+  /** Digit histograms, allocated on the first radix sort (small inputs never need them). */
+  counts: Uint32Array | null;
 }
+
+/** Below this length a comparison sort of indices is cheaper than four 65536-bucket passes. */
+export const RADIX_MIN_LENGTH = 8192;
 
 export function createRadixSortBuffers(capacity: number): RadixSortBuffers {
   return {
@@ -29,7 +34,7 @@ export function createRadixSortBuffers(capacity: number): RadixSortBuffers {
     hiB: new Uint32Array(capacity),
     loB: new Uint32Array(capacity),
     idxB: new Uint32Array(capacity),
-    counts: new Uint32Array(4 * 65536),
+    counts: null,
   };
 }
 
@@ -42,6 +47,12 @@ const LITTLE_ENDIAN = new Uint8Array(new Uint16Array([1]).buffer)[0] === 1;
 export function radixArgsort(values: Float64Array, order: Uint32Array, sorted: Float64Array, buffers: RadixSortBuffers): void {
   const n = values.length;
   if (n > buffers.capacity) throw new RangeError(`values: length ${n} exceeds the sort buffers' capacity ${buffers.capacity}`);
+  if (n < RADIX_MIN_LENGTH) {
+    for (let i = 0; i < n; i++) order[i] = i;
+    order.subarray(0, n).sort((a, b) => values[a] - values[b]);
+    for (let i = 0; i < n; i++) sorted[i] = values[order[i]];
+    return;
+  }
   const words = new Uint32Array(values.buffer, values.byteOffset, 2 * n);
   const loOff = LITTLE_ENDIAN ? 0 : 1;
   const hiOff = 1 - loOff;
@@ -51,6 +62,7 @@ export function radixArgsort(values: Float64Array, order: Uint32Array, sorted: F
   let hi2 = buffers.hiB;
   let lo2 = buffers.loB;
   let idx2 = buffers.idxB;
+  if (buffers.counts === null) buffers.counts = new Uint32Array(4 * 65536);
   const counts = buffers.counts;
   counts.fill(0);
   for (let i = 0; i < n; i++) {

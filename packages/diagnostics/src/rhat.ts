@@ -1,6 +1,6 @@
 import { prepareQuantity } from './prepare.js';
 import { bulkScores, foldedScores } from './quantitySteps.js';
-import { rhatOfHalves } from './rhatOfHalves.js';
+import { combineRhat, rhatOfHalves } from './rhatOfHalves.js';
 import { splitHalves } from './splitChains.js';
 import type { ChainsInput } from './validateChains.js';
 
@@ -19,7 +19,7 @@ export function splitRhat(chains: ChainsInput): number {
   if (loaded.constant) return NaN;
   const bulk = rhatOfHalves(splitHalves(bulkScores(ws), ws.chains, ws.draws));
   const folded = rhatOfHalves(splitHalves(foldedScores(ws, loaded.median), ws.chains, ws.draws));
-  return Math.max(bulk, folded);
+  return combineRhat(bulk, folded);
 }
 
 /** Bulk R-hat: split R-hat of the rank-normalised draws (detects differences in location). */

@@ -26,3 +26,12 @@ export function rhatOfHalves(halves: readonly ArrayLike<number>[]): number {
   if (within > 0) return Math.sqrt(plus / within);
   return plus > 0 ? Infinity : NaN;
 }
+
+/**
+ * The reported R-hat: the larger of bulk and folded; +Infinity if either is infinite (a
+ * folded series can be constant when the bulk one is not), NaN only if undefined otherwise.
+ */
+export function combineRhat(bulk: number, folded: number): number {
+  if (bulk === Infinity || folded === Infinity) return Infinity;
+  return Math.max(bulk, folded);
+}

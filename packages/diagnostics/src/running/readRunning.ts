@@ -2,7 +2,7 @@ import { autocovarianceDirect } from '../autocovariance.js';
 import { advanceGeyer, combinedCorrelation, essFromAutocovariances, finishGeyer, startGeyer, varianceComponents } from '../geyer.js';
 import { quantileOfSorted } from '../quantile.js';
 import { bulkScores, foldedScores, loadQuantity } from '../quantitySteps.js';
-import { rhatOfHalves } from '../rhatOfHalves.js';
+import { combineRhat, rhatOfHalves } from '../rhatOfHalves.js';
 import { splitHalves } from '../splitChains.js';
 import type { DiagnosticWarning } from '../warningTypes.js';
 import { createDiagnosticsWorkspace } from '../workspace.js';
@@ -237,7 +237,7 @@ export function readRunningDiagnostics(s: RunningDiagnosticsState): RunningSnaps
       if (!loaded.constant) {
         const bulk = rhatOfHalves(splitHalves(bulkScores(ws), M, resN));
         const folded = rhatOfHalves(splitHalves(foldedScores(ws, loaded.median), M, resN));
-        rank = { rhat: Math.max(bulk, folded), bulk, folded, median: loaded.median, q05, q95 };
+        rank = { rhat: combineRhat(bulk, folded), bulk, folded, median: loaded.median, q05, q95 };
       } else rank = { ...rank, median: loaded.median, q05, q95 };
     }
     return {
