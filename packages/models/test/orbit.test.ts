@@ -33,7 +33,7 @@ const angleDiff = (a: number, b: number): number => {
 
 describe('anomalies and separation', () => {
   it('true anomaly satisfies cos f = (cos E - e)/(1 - e cos E) and r/a = (1 - e^2)/(1 + e cos f)', () => {
-    // Standard ellipse relations (e.g. Murray & Dermott 1999, Solar System Dynamics, eqs. 2.41-2.43; from memory).
+    // Standard ellipse relations (e.g. Murray & Dermott 1999, Solar System Dynamics, ch. 2; from memory).
     for (const e of [0, 0.2, 0.7, 0.999]) {
       for (const E of [-4, -1, 0, 0.3, 2, 3.1, 9]) {
         const f = trueAnomalyFromEccentric(E, e);

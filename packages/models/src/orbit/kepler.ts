@@ -3,11 +3,13 @@
  *
  * Method: the mean anomaly is reduced to [-pi, pi) keeping the number of whole turns,
  * folded onto [0, pi] by the odd symmetry E(-M) = -E(M), started with the cubic
- * approximation of Markley (1995, Celestial Mechanics 63, 101, eqs. 5-20) and refined
- * with his fifth-order (quartic-denominator) Householder-type correction. A second
- * correction is applied only when the first one was large (never observed), so the
- * iteration count is bounded by `MAX_CORRECTIONS`. The sine and cosine of E are carried through the last
- * correction by angle addition, so callers that need them pay for no extra trig calls.
+ * approximation of Markley (1995, Celestial Mechanics and Dynamical Astronomy 63, 101;
+ * formulas from memory, checked here against bisection) and refined with one
+ * fifth-order correction (a Taylor expansion of Kepler's equation to fourth order,
+ * solved by substitution). A further correction is made only when the first one was
+ * large (never observed), so the iteration count is bounded by `MAX_CORRECTIONS`. The
+ * sine and cosine of E are carried through the last correction by angle addition, so
+ * callers that need them pay for no extra trig calls.
  */
 import { OrbitParameterError } from './errors.js';
 
@@ -20,12 +22,13 @@ const MARKLEY_B = (1.6 * PI) / (PI_SQUARED - 6);
 export const MAX_CORRECTIONS = 3;
 /**
  * A correction below this size leaves an error at the rounding level (fifth-order
- * convergence). Markley's starter is within 5e-4 rad of the root on all of
- * 0 <= e < 1, so in practice one correction is made; further ones are a safety net.
+ * convergence). Measured on a grid of 1e5 mean anomalies x 13 eccentricities up to
+ * 0.9999, the starter is within 4.3e-4 rad of the root, so in practice one correction is
+ * made; further ones are a safety net.
  */
 const CONVERGED_STEP = 2e-3;
 
-/** Fifth-order correction of E towards the root of E - e sin E - m (Markley 1995, eqs. 21-25). */
+/** Fifth-order correction of E towards the root of E - e sin E - m (after Markley 1995). */
 function correction(E: number, m: number, es: number, ec: number): number {
   // Successive substitution of the Taylor series of f(E) = E - e sin E - m to fourth order.
   const f0 = E - es - m;
@@ -88,8 +91,8 @@ export function solveKeplerWithConstants(
     sinE = Math.sin(m);
     cosE = Math.cos(m);
   } else {
-    // Markley's starter: a cubic in E whose coefficients interpolate a rational
-    // approximation of sin E across [0, pi] (his eqs. 5-20, rearranged); within 5e-4 rad.
+    // Markley's starter: the root of a cubic in E from a rational approximation of
+    // sin E across [0, pi] (rearranged to save divisions); within 4.3e-4 rad (measured).
     const alpha = MARKLEY_A + markleyB * (PI - m);
     const d = 3 * oneMinusE + alpha * e;
     const ad = alpha * d;
