@@ -1,9 +1,13 @@
 import { defineConfig } from 'vitest/config';
 
-// Tests import workspace packages through their "source" export condition, so no
-// build is needed to run them; `pnpm test` still builds first to type-check.
+// Tests import workspace packages through their "source" export condition, so they run
+// straight from src/ with no build; `pnpm test` still builds first to type-check.
+// Vitest's node tests resolve through the SSR settings, so the condition is given there too.
+const conditions = ['source', 'module', 'node', 'import', 'default'];
+
 export default defineConfig({
-  resolve: { conditions: ['source', 'module', 'node', 'import', 'default'] },
+  resolve: { conditions },
+  ssr: { resolve: { conditions, externalConditions: ['source'] } },
   test: {
     include: ['packages/*/test/**/*.test.ts', 'tests/**/*.test.ts'],
     testTimeout: 120_000,
