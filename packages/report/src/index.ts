@@ -13,6 +13,6 @@ export { tickLabels, type TickLabels } from './format.js';
 export { minMaxDownsample, evenIndices, type Downsampled } from './downsample.js';
 export { escapeText } from './escape.js';
 export { okabeIto, seriesColour } from './palette.js';
-export { energyBfmi, EBFMI_THRESHOLD } from './stats/energy.js';
+export { RHAT_THRESHOLD, ESS_PER_CHAIN, EBFMI_THRESHOLD } from './stats/flags.js';
 export { pooledRanks, rankCounts } from './stats/ranks.js';
-export { summarise, type SummarySources } from './stats/summarise.js';
+export { summarise, computeWarnings, fromDiagnosticWarning, SUMMARY_QUANTILES, type ComputedSummary } from './stats/summarise.js';

@@ -3,6 +3,8 @@
  * produced. Every field is checked by `validateReportInput` (see validate.ts).
  */
 
+import type { DiagnosticWarning } from '@apsis/diagnostics';
+
 /** A number[] or any typed array (Float64Array, Int32Array, Uint8Array, …). */
 export type NumberArray = ArrayLike<number>;
 
@@ -89,9 +91,16 @@ export interface ReportWarning {
   message: string;
   /** What to do about it. */
   advice?: string;
-  /** The quantity it concerns, if one. */
-  quantity?: string;
+  /** The quantity it concerns, if one (null or absent for run-level findings). */
+  quantity?: string | null;
 }
+
+/**
+ * A warning as the report takes it: its own shape, or @apsis/diagnostics'
+ * DiagnosticWarning as it comes ('caution' is shown as a warning). The severity
+ * words info, warn, error and critical are also accepted.
+ */
+export type WarningInput = ReportWarning | DiagnosticWarning;
 
 /** Data points of one group (e.g. one instrument), in the panel's units. */
 export interface FitGroup {
@@ -154,11 +163,18 @@ export interface ReportInput {
   stats?: ChainStats[];
   /** Summary rows; computed from the draws when absent. */
   summary?: SummaryRow[];
-  /** Warnings to show first; the tables also flag R-hat, ESS and divergences themselves. */
-  warnings?: ReportWarning[];
+  /**
+   * Warnings to show; when absent they are computed with @apsis/diagnostics from
+   * the draws and statistics. Warnings from that package (DiagnosticWarning) can be
+   * passed as they are: 'caution' is shown as a warning, extra fields are ignored.
+   */
+  warnings?: WarningInput[];
   /** Quantities for the pair plot (default: the first five, at most). */
   pairs?: string[];
   /** Data-and-model panels. */
   fits?: FitPanel[];
   limits?: PlotLimits;
 }
+
+/** The input after validation: warnings normalised to the report's own shape. */
+export type ValidReportInput = Omit<ReportInput, 'warnings'> & { warnings?: ReportWarning[] };

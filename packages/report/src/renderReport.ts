@@ -10,7 +10,7 @@ import { runTable } from './html/runTable.js';
 import { samplerTable } from './html/samplerTable.js';
 import { summaryTable } from './html/summaryTable.js';
 import { warningsList } from './html/warningsList.js';
-import type { ReportInput, SummaryRow } from './input.js';
+import type { ReportInput, ReportWarning, SummaryRow, ValidReportInput } from './input.js';
 import { chainValuePlot } from './plots/chainValuePlot.js';
 import { fitPanel } from './plots/fitPanel.js';
 import { pairPlot } from './plots/pairPlot.js';
@@ -19,9 +19,8 @@ import { tracePlot } from './plots/tracePlot.js';
 import { treeDepthPlot } from './plots/treeDepthPlot.js';
 import { type ChainHealth, chainHealth } from './stats/chainHealth.js';
 import { columnOfChains, flags, pool } from './stats/columns.js';
-import { EBFMI_THRESHOLD } from './stats/energy.js';
-import { summaryFlags } from './stats/flags.js';
-import { type SummarySources, summarise } from './stats/summarise.js';
+import { EBFMI_THRESHOLD, summaryFlags } from './stats/flags.js';
+import { computeWarnings, summarise } from './stats/summarise.js';
 import { validateReportInput } from './validate.js';
 
 /** Default number of quantities in the pair plot when `pairs` is not given. */
@@ -41,7 +40,7 @@ interface Verdict {
   flaggedQuantities: number;
 }
 
-function verdict(summary: readonly SummaryRow[], health: readonly ChainHealth[], input: ReportInput, sources: SummarySources | undefined): Verdict {
+function verdict(summary: readonly SummaryRow[], health: readonly ChainHealth[], input: ValidReportInput, warningsShown: readonly ReportWarning[], missing: string | undefined): Verdict {
   const chains = input.run.chains;
   const items: string[] = [];
   const flagged = summary.filter((r) => summaryFlags(r, chains).length > 0);
@@ -55,24 +54,24 @@ function verdict(summary: readonly SummaryRow[], health: readonly ChainHealth[],
   if (atLimit > 0) items.push(`${atLimit} draws at the tree-depth limit`);
   const lowEnergy = health.filter((h) => h.ebfmi !== undefined && h.ebfmi < EBFMI_THRESHOLD).length;
   if (lowEnergy > 0) items.push(`E-BFMI below ${EBFMI_THRESHOLD} in ${lowEnergy} chain${lowEnergy > 1 ? 's' : ''}`);
-  const problems = (input.warnings ?? []).filter((w) => w.severity === 'problem').length;
-  const warnings = (input.warnings ?? []).filter((w) => w.severity === 'warning').length;
-  if (problems > 0) items.push(`${problems} problem${problems > 1 ? 's' : ''} reported with the run`);
-  if (warnings > 0) items.push(`${warnings} warning${warnings > 1 ? 's' : ''} reported with the run`);
+  const problems = warningsShown.filter((w) => w.severity === 'problem').length;
+  const warnings = warningsShown.filter((w) => w.severity === 'warning').length;
+  const listed = [problems > 0 ? `${problems} problem${problems > 1 ? 's' : ''}` : '', warnings > 0 ? `${warnings} warning${warnings > 1 ? 's' : ''}` : '']
+    .filter(Boolean)
+    .join(' and ');
+  if (listed) items.push(`${listed} listed under Warnings`);
 
   let html = items.length
     ? `<p class="verdict"><span class="badge warning">CHECK</span>${escapeText(items.join('; '))}.</p>`
     : '<p class="verdict"><span class="badge ok">NO FLAGS</span>None of the checks in this report raised a flag.</p>';
-  if (sources && !(sources.rhat && sources.essBulk && sources.essTail)) {
-    html += '<p class="caution">R-hat and effective sample sizes could not be computed here (the diagnostics functions were not available); their columns are empty and were not checked.</p>';
-  }
+  if (missing) html += `<p class="caution">${escapeText(missing)} Their columns are empty and were not checked.</p>`;
   html +=
     '<p class="caution">Diagnostics can show that something went wrong; they cannot prove that the chains converged. ' +
     'The posterior, and every number below, depends on the model and the priors stated for it.</p>';
   return { html, flaggedQuantities: flagged.length };
 }
 
-function healthSection(input: ReportInput, health: readonly ChainHealth[]): string {
+function healthSection(input: ValidReportInput, health: readonly ChainHealth[]): string {
   const stats = input.stats ?? [];
   const plots: string[] = [];
   if (health.some((h) => h.ebfmi !== undefined)) {
@@ -127,7 +126,8 @@ function quantityCard(name: string, unit: string | undefined, row: SummaryRow | 
 
 /**
  * Renders the report. Validates the input first (throws ReportInputError naming
- * the field); computes the summary with @apsis/diagnostics when none is given.
+ * the field); computes the summary and the warnings with @apsis/diagnostics when
+ * they are not given.
  */
 export function renderReport(raw: ReportInput): string {
   const input = validateReportInput(raw);
@@ -139,17 +139,27 @@ export function renderReport(raw: ReportInput): string {
   const divergent = input.stats?.map((s) => (s.divergent ? flags(s.divergent, rows) : undefined));
   const limits = input.limits ?? {};
 
-  let summary: SummaryRow[];
-  let sources: SummarySources | undefined;
-  if (input.summary) summary = input.summary;
-  else ({ rows: summary, sources } = summarise(names, byQuantity));
+  // The summary and the warnings are computed only when not supplied.
+  const computed = !input.summary || !input.warnings ? summarise(names, byQuantity) : undefined;
+  const summary: SummaryRow[] = input.summary ?? computed?.rows ?? [];
+  const missing = input.summary ? undefined : computed?.missing;
+  const warningsComputed = !input.warnings;
+  const warnings: ReportWarning[] =
+    input.warnings ?? (computed?.table ? computeWarnings(computed.table, input.stats, input.run.maxTreeDepth) : []);
   const health = chains.map((_, c) => chainHealth(input.stats?.[c], rows, input.run.maxTreeDepth));
   const createdAt = input.createdAt instanceof Date ? input.createdAt.toISOString() : input.createdAt;
-  const check = verdict(summary, health, input, sources);
+  const check = verdict(summary, health, input, warnings, missing);
 
   const parts: string[] = [];
   parts.push(section('checks', 'Checks at a glance', check.html));
-  parts.push(section('warnings', 'Warnings', warningsList(input.warnings ?? [])));
+  parts.push(
+    section(
+      'warnings',
+      'Warnings',
+      `<p class="caution">${warningsComputed ? 'Computed by @apsis/diagnostics from the draws and sampler statistics.' : 'As passed in with the run.'}</p>` +
+        warningsList(warnings),
+    ),
+  );
   parts.push(section('run', 'Run', runTable(input.run, rows, createdAt)));
   parts.push(
     section(

@@ -4,7 +4,7 @@
  * checked after. Every problem is reported with the field's path.
  */
 import { z } from 'zod';
-import type { FitGroup, ReportInput } from './input.js';
+import type { FitGroup, ValidReportInput } from './input.js';
 
 /** One problem with a report input: the field's path and what was expected. */
 export interface InputIssue {
@@ -122,7 +122,7 @@ const schema = z.strictObject({
         severity,
         message: z.string(),
         advice: z.string().optional(),
-        quantity: z.string().optional(),
+        quantity: z.string().nullable().optional(),
       }),
     )
     .optional(),
@@ -200,7 +200,7 @@ function checkRange(check: Check, field: string, a: ArrayLike<number>, ok: (v: n
   }
 }
 
-function checkConsistency(input: ReportInput, check: Check): void {
+function checkConsistency(input: ValidReportInput, check: Check): void {
   const { names, chains } = input.quantities;
   const dim = names.length;
   const seen = new Set<string>();
@@ -289,15 +289,15 @@ function checkConsistency(input: ReportInput, check: Check): void {
 }
 
 /**
- * Checks a report input and returns it with warning severities normalised.
+ * Checks a report input (a ReportInput) and returns it with warnings normalised.
  * Throws ReportInputError listing every problem, each with its field path.
  */
-export function validateReportInput(input: unknown): ReportInput {
+export function validateReportInput(input: unknown): ValidReportInput {
   const parsed = schema.safeParse(input);
   if (!parsed.success) {
     throw new ReportInputError(parsed.error.issues.map((i) => ({ field: pathText(i.path), message: i.message })));
   }
-  const value = parsed.data as ReportInput;
+  const value = parsed.data as ValidReportInput;
   const issues: InputIssue[] = [];
   checkConsistency(value, (field, message) => issues.push({ field, message }));
   if (issues.length > 0) throw new ReportInputError(issues);

@@ -91,6 +91,23 @@ describe('renderReport', () => {
     expect(svgElements(flat).some((s) => s.includes('NaN') || s.includes('Infinity'))).toBe(false);
     expect(svgElements(flat, 'pair').length).toBe(1);
   });
+  it('computes warnings with @apsis/diagnostics when none are passed in', () => {
+    const auto = syntheticInput({ draws: 300, names: ['a', 'b'], divergentRate: 0.01 });
+    delete auto.warnings;
+    const out = renderReport(auto);
+    expect(out.includes('Computed by @apsis/diagnostics'), 'source named').toBe(true);
+    // divergent draws are a problem, draws at the depth limit a caution (shown as WARNING)
+    expect(/<li class="problem"><span class="badge problem">PROBLEM<\/span>[^<]*diverg/i.test(out), 'divergence problem').toBe(true);
+    expect(/<li class="warning"><span class="badge warning">WARNING<\/span>[^<]*depth/i.test(out), 'tree-depth caution').toBe(true);
+  });
+  it('accepts the diagnostics package’s own warning objects', () => {
+    const given = syntheticInput({ draws: 40, chains: 2, names: ['a', 'b'] });
+    given.warnings = [
+      { code: 'ebfmi-low', severity: 'caution', quantity: null, chain: 1, value: 0.2, threshold: 0.3, message: 'Low E-BFMI.', advice: 'Reparameterise.' },
+    ];
+    const out = renderReport(given);
+    expect(out.includes('<span class="badge warning">WARNING</span>Low E-BFMI.<span class="advice">What to do: Reparameterise.</span>')).toBe(true);
+  });
   it('keeps a 1e5-draw run small: bounded polylines and file size', () => {
     const big = syntheticInput({ draws: 100_000, chains: 4, names: ['period', 'K', 'eccentricity'] });
     const out = renderReport(big);

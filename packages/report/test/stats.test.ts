@@ -1,27 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { energyBfmi, pooledRanks, rankCounts, summarise } from '../src/index.js';
+import { pooledRanks, rankCounts, summarise } from '../src/index.js';
 import { quantileSorted } from '../src/stats/quantile.js';
-import { ar1, normalStream } from './synthetic.js';
-
-describe('energyBfmi (Betancourt 2016, arXiv:1604.00695, eq. 3.6 estimator)', () => {
-  // For a stationary AR(1) energy with coefficient phi and variance s², the
-  // expected squared step is 2 s² (1 − phi), so E-BFMI → 2 (1 − phi) (standard
-  // time-series result). Monte Carlo error of the ratio for n draws is below
-  // sqrt(20 / n) (delta method: the squared steps have variance 8 s⁴ and lag-1
-  // correlation 1/4 for phi = 0; smaller relative spread for phi > 0); tolerance 4 of those.
-  const n = 40_000;
-  const se = Math.sqrt(20 / n);
-  for (const phi of [0, 0.5, 0.9]) {
-    it(`is 2(1 − phi) for AR(1) energies, phi = ${phi}`, () => {
-      const e = ar1(normalStream(11 + phi * 10), n, phi);
-      expect(Math.abs(energyBfmi(e) - 2 * (1 - phi))).toBeLessThan(4 * se);
-    });
-  }
-  it('is NaN when it cannot be computed', () => {
-    expect(energyBfmi([1, 2])).toBeNaN();
-    expect(energyBfmi([3, 3, 3, 3])).toBeNaN();
-  });
-});
+import { normalStream } from './synthetic.js';
 
 describe('pooledRanks (Vehtari et al. 2021, sec. 4: ranks of pooled draws, ties averaged)', () => {
   it('averages tied ranks', () => {
@@ -54,7 +34,8 @@ describe('summarise', () => {
   it('recovers a normal’s mean, sd and 5 %/95 % quantiles within Monte Carlo error', () => {
     const normal = normalStream(99);
     const chains = Array.from({ length: 4 }, () => Float64Array.from({ length: 10_000 }, () => 5 + 2 * normal()));
-    const { rows } = summarise(['x'], [chains]);
+    const { rows, missing } = summarise(['x'], [chains]);
+    expect(missing).toBeUndefined();
     const r = rows[0];
     const n = 40_000;
     // Standard errors for independent draws: sd/√n for the mean; sd/√(2n) for the
@@ -66,5 +47,15 @@ describe('summarise', () => {
     expect(Math.abs(r.q05 - (5 - 2 * 1.6449))).toBeLessThan(4 * seQ);
     expect(Math.abs(r.q95 - (5 + 2 * 1.6449))).toBeLessThan(4 * seQ);
     expect(Math.abs(r.q50 - 5)).toBeLessThan(4 * ((2 * Math.sqrt(0.25 / n)) / 0.39894));
+  });
+});
+
+describe('summarise on runs too short for the diagnostics', () => {
+  it('still gives pooled moments and says why the rest is missing', () => {
+    const { rows, missing } = summarise(['x'], [[Float64Array.of(1, 2, 3), Float64Array.of(4, 5, 6)]]);
+    expect(rows[0].mean).toBe(3.5);
+    expect(rows[0].q50).toBe(3.5);
+    expect(rows[0].rhat).toBeUndefined();
+    expect(missing).toMatch(/at least \d+ draws per chain; this run has 3/);
   });
 });

@@ -7,7 +7,7 @@ const badge: Record<Severity, string> = { problem: 'PROBLEM', warning: 'WARNING'
 
 /** HTML list of warnings; an explicit sentence when there are none. */
 export function warningsList(warnings: readonly ReportWarning[]): string {
-  if (warnings.length === 0) return '<p>No warnings were passed in with this run.</p>';
+  if (warnings.length === 0) return '<p><span class="badge ok">NONE</span>No warnings.</p>';
   const sorted = [...warnings].sort((a, b) => rank[a.severity] - rank[b.severity]);
   const items = sorted
     .map((w) => {

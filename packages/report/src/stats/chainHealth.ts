@@ -1,6 +1,6 @@
 /** Per-chain sampler health figures for the sampler table and health plots. */
 import type { ChainStats } from '../input.js';
-import { energyBfmi } from './energy.js';
+import { energyBfmi } from '@apsis/diagnostics';
 
 export interface ChainHealth {
   draws: number;

@@ -5,13 +5,15 @@
  * bulk and tail ESS above 100 per chain) and Betancourt (2016, E-BFMI below 0.3;
  * common practice).
  */
+import { DEFAULT_THRESHOLDS } from '@apsis/diagnostics';
 import type { SummaryRow } from '../input.js';
 import { formatCount, formatFixed } from '../format.js';
 import type { ChainHealth } from './chainHealth.js';
-import { EBFMI_THRESHOLD } from './energy.js';
 
-export const RHAT_THRESHOLD = 1.01;
-export const ESS_PER_CHAIN = 100;
+/** The same thresholds as @apsis/diagnostics' warnings, so tables and warnings agree. */
+export const RHAT_THRESHOLD = DEFAULT_THRESHOLDS.rhat;
+export const ESS_PER_CHAIN = DEFAULT_THRESHOLDS.essPerChain;
+export const EBFMI_THRESHOLD = DEFAULT_THRESHOLDS.ebfmi;
 
 /** Plain-words flags for one summary row; empty when none. */
 export function summaryFlags(row: SummaryRow, chains: number): string[] {
