@@ -2,32 +2,15 @@ import { availableParallelism } from 'node:os';
 import { z } from 'zod';
 import { describeValue } from '../sampler/optionErrors.js';
 import { resolveRunOptions, type ResolvedRunOptions, type RunOptions } from '../sampler/runOptions.js';
-import { resolveConvergenceCriteria, type ConvergenceCriteria, type ResolvedConvergenceCriteria } from './convergence.js';
+import { resolveConvergenceCriteria, type ResolvedConvergenceCriteria } from './convergence.js';
+import type { LongRunOptions } from './longRunOptions.js';
 import { RunOptionsError } from './errors.js';
 import type { RunProgress } from './progressTracker.js';
 
 /** Options of `executeRun`: those of `runChains` plus the long-run machinery. */
-export interface ExecuteRunOptions extends Omit<RunOptions, 'onProgress'> {
-  /**
-   * Worker threads for the chains (0: the calling thread). Needs a target recipe when
-   * above 0. Default: min(chains, cores) for a recipe on a machine with 2 or more
-   * cores and 2 or more chains, else 0.
-   */
-  threads?: number;
-  /** Run folder to stream traces, checkpoints and the outcome into (created if missing; must be empty). */
-  folder?: string;
-  /** Iterations between checkpoints in the run folder (default 500; 0: none). */
-  checkpointEvery?: number;
-  /** Seconds between fsyncs of the trace files (default 5; rows reach the OS within 0.2 s regardless). */
-  syncSeconds?: number;
-  /** Draw progress on stderr (default: when stderr is a terminal and CI is not set). */
-  progress?: boolean;
-  /** Called with every chain's progress several times a second. */
+export interface ExecuteRunOptions extends Omit<RunOptions, 'onProgress'>, LongRunOptions {
+  /** Called with every chain's progress several times a second (a `ChainProgress` plus all chains' lines). */
   onProgress?: (progress: RunProgress) => void;
-  /** Keep drawing until converged (true: default criteria), instead of a fixed `draws`. */
-  untilConverged?: boolean | ConvergenceCriteria;
-  /** Free text stored in the manifest. */
-  label?: string;
 }
 
 /** Runner-only options after validation. */

@@ -1,4 +1,6 @@
 import { randomInt } from 'node:crypto';
+import { wantsRunner, type LongRunOptions } from '../runner/longRunOptions.js';
+import type { TargetRecipe } from '../runner/targetRecipe.js';
 import type { Target } from '../target.js';
 import { advanceChain } from './advanceChain.js';
 import type { ChainSettings } from './chainSettings.js';
@@ -92,10 +94,24 @@ function abortReason(signal: AbortSignal): unknown {
  * index), so the same seed and options give bit-identical results however the chains
  * are scheduled. Errors thrown by the target propagate.
  *
+ * With a target recipe (`{ module, exportName, args }`) or any long-run option
+ * (`threads`, `folder`, `checkpointEvery`, `syncSeconds`, `progress`, `untilConverged`,
+ * `label`), the run is handed to the runner's `executeRun` (worker threads, run
+ * folders, checkpoints, run until converged) with the same draws for the same seed.
+ *
  * Throws (rejects with) `SamplerOptionsError` for invalid options and
  * `InitialisationError` when a chain finds no finite starting point.
  */
-export async function runChains(target: Target, options: RunOptions = {}): Promise<RunResult> {
+export async function runChains(target: Target | TargetRecipe, options: RunOptions & LongRunOptions = {}): Promise<RunResult> {
+  if (wantsRunner(target, options)) {
+    // Worker threads, run folders, checkpoints, progress display, run until converged.
+    const { executeRun } = await import('../runner/executeRun.js');
+    return executeRun(target, options);
+  }
+  return runInThread(target as Target, options);
+}
+
+async function runInThread(target: Target, options: RunOptions): Promise<RunResult> {
   const started = performance.now();
   checkTarget(target);
   const o = resolveRunOptions(options);
