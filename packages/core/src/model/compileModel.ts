@@ -181,28 +181,45 @@ export async function compileModel(spec: ModelSpec, options: CompileOptions = {}
   }
 
   let trialRun = false;
+  const needsView = tensorTerms.length > 0;
   const evaluate = (x: Float64Array, grad: Float64Array | null, parts: number[] | null): number => {
     let logJ = 0;
-    for (const p of params) logJ += p.transform.forward(x, p.uAt, theta, p.at);
-    view.refresh();
+    for (let i = 0; i < params.length; i++) {
+      const p = params[i];
+      logJ += p.transform.forward(x, p.uAt, theta, p.at);
+    }
+    if (needsView) view.refresh();
     gTheta.fill(0);
-    let logPrior = 0;
-    for (const p of params) logPrior += p.logPrior(theta, gTheta);
+    // Likelihood terms first: the first fused term writes straight into the zeroed
+    // gradient (its contract: zero on entry), later ones go through their own buffer.
     let logLik = 0;
-    for (const f of fused) {
+    for (let k = 0; k < fused.length; k++) {
+      if (k === 0) {
+        logLik += fused[0](theta, gTheta);
+        continue;
+      }
       gLik.fill(0);
-      logLik += f(theta, gLik);
+      logLik += fused[k](theta, gLik);
       for (let i = 0; i < L; i++) gTheta[i] += gLik[i];
     }
-    for (const t of tensorTerms) logLik += trialRun ? t.evaluate(theta, gTheta) : t.trial(theta, gTheta);
-    if (grad !== null) for (const p of params) p.transform.backward(x, p.uAt, theta, p.at, gTheta, p.at, grad, p.uAt);
+    for (let k = 0; k < tensorTerms.length; k++) {
+      logLik += trialRun ? tensorTerms[k].evaluate(theta, gTheta) : tensorTerms[k].trial(theta, gTheta);
+    }
+    let logPrior = 0;
+    for (let i = 0; i < params.length; i++) logPrior += params[i].logPrior(theta, gTheta);
+    if (grad !== null) {
+      for (let i = 0; i < params.length; i++) {
+        const p = params[i];
+        p.transform.backward(x, p.uAt, theta, p.at, gTheta, p.at, grad, p.uAt);
+      }
+    }
     const total = logPrior + logJ + logLik;
     if (parts !== null) {
       parts[0] = logPrior;
       parts[1] = logJ;
       parts[2] = logLik;
     }
-    return Number.isNaN(total) ? -Infinity : total;
+    return total === total ? total : -Infinity;
   };
 
   // Outputs: own buffers, so recording a draw never disturbs the gradient buffers.
