@@ -119,3 +119,35 @@ describe('console output of a fresh process', () => {
     expect(run.stdout).toBe(`backend ${DEFAULT_BACKEND}\n`);
   });
 });
+
+describe('gradient gaps of TensorFlow.js give errors that say what to do', () => {
+  // Known gaps recorded in DESIGN.md: gather has no gradient on WASM; tf.where with a
+  // condition computed from a differentiated tensor has no gradient.
+  it('gather on WASM names the missing kernel and the way out', async () => {
+    const spec = {
+      parameters: [{ name: 'a', size: 3, prior: priors.normal(0, 1) }],
+      data: { idx: [0, 2, 1, 1] },
+      likelihood: tensorLikelihood((p, _e, { tf, data }) => tf.neg(tf.sum(tf.square(tf.gather(p.a, tf.cast(data.idx, 'int32')))))),
+    };
+    await expect(compileModel(spec, { backend: 'wasm', quiet: true })).rejects.toThrow(
+      /likelihood = "an op needing kernel UnsortedSegmentSum": expected ops that backend "wasm" implements: use backend "cpu"/,
+    );
+    // The same model works on the CPU backend: d/da of −Σ a[idx]² = −2 · count · a.
+    const model = await compileModel(spec, { backend: 'cpu', quiet: true });
+    const g = new Float64Array(3);
+    model.logDensityGrad(Float64Array.of(1, 2, 3), g);
+    expect(Array.from(g)).toEqual([-2 * 1 - 1, -2 * 2 * 2 - 2, -2 * 3 - 3]);
+    model.dispose();
+  });
+  it('a condition computed on the tape names the op', async () => {
+    await expect(
+      compileModel(
+        {
+          parameters: [{ name: 'a', prior: priors.normal(0, 1) }],
+          likelihood: tensorLikelihood((p, _e, { tf }) => tf.where(tf.greater(p.a, 0), p.a, tf.neg(p.a)) as never),
+        },
+        { backend: 'cpu', quiet: true },
+      ),
+    ).rejects.toThrow(/build conditions \(tf\.where, comparisons\) from values off the tape/);
+  });
+});

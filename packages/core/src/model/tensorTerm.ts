@@ -139,6 +139,45 @@ export function compileTensorTerm(
 
   return {
     evaluate: (theta, gTheta) => once(theta, gTheta, false),
-    trial: (theta, gTheta) => once(theta, gTheta, true),
+    trial: (theta, gTheta) => {
+      try {
+        return once(theta, gTheta, true);
+      } catch (e) {
+        throw explainMissingKernel(e, tf.getBackend());
+      }
+    },
   };
+}
+
+/**
+ * Turns TensorFlow.js's "kernel not registered" and "gradient function not found"
+ * failures into an error that says what to do. Known gaps (DESIGN.md): on WASM the
+ * gradient of `gather` needs `UnsortedSegmentSum`, which WASM lacks; `tf.where` on a
+ * condition computed from a differentiated tensor has no gradient on any backend.
+ */
+export function explainMissingKernel(e: unknown, backend: string): unknown {
+  if (!(e instanceof Error)) return e;
+  const kernel = /Kernel '(\w+)' not registered for backend '(\w+)'/.exec(e.message);
+  if (kernel) {
+    const err = new ModelDeclarationError(
+      'likelihood',
+      `an op needing kernel ${kernel[1]}`,
+      `ops that backend "${kernel[2]}" implements: use backend "cpu" (option backend: 'cpu' or APSIS_BACKEND=cpu), ` +
+        'or replace the op (for gather: slice, unstack or a one-hot matMul)',
+    );
+    (err as Error & { cause?: unknown }).cause = e;
+    return err;
+  }
+  const gradient = /gradient function not found for (\w+)/i.exec(e.message);
+  if (gradient) {
+    const err = new ModelDeclarationError(
+      'likelihood',
+      `an op whose gradient needs ${gradient[1]}`,
+      `differentiable ops on backend "${backend}": build conditions (tf.where, comparisons) from values off the tape, ` +
+        'e.g. from the exact float64 values or the data',
+    );
+    (err as Error & { cause?: unknown }).cause = e;
+    return err;
+  }
+  return e;
 }
