@@ -34,10 +34,16 @@ export function createAutocovarianceWorkspace(draws: number, lags = draws): Auto
   return { plan: createFftPlan(size), re: new Float64Array(size), im: new Float64Array(size) };
 }
 
+/** Mean; exactly the common value for a constant series (so it centres to exact zeros). */
 function meanOf(x: ArrayLike<number>): number {
   let s = 0;
-  for (let i = 0; i < x.length; i++) s += x[i];
-  return s / x.length;
+  let constant = true;
+  const first = x[0];
+  for (let i = 0; i < x.length; i++) {
+    s += x[i];
+    if (x[i] !== first) constant = false;
+  }
+  return constant ? first : s / x.length;
 }
 
 /**

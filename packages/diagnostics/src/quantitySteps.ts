@@ -31,7 +31,9 @@ export function loadQuantity(ws: DiagnosticsWorkspace, chains: readonly Float64A
   for (let i = 0; i < total; i++) ss += (pooled[i] - mean) * (pooled[i] - mean);
   radixArgsort(pooled, ws.order, ws.sorted, ws.sortBuffers);
   const median = quantileOfSorted(ws.sorted, 0.5);
-  return { mean, sd: Math.sqrt(ss / (total - 1)), median, constant: ws.sorted[0] === ws.sorted[total - 1] };
+  const constant = ws.sorted[0] === ws.sorted[total - 1];
+  if (constant) return { mean: ws.sorted[0], sd: 0, median, constant };
+  return { mean, sd: Math.sqrt(ss / (total - 1)), median, constant };
 }
 
 /** Rank-normalised draws into ws.bulkScores. */

@@ -15,10 +15,18 @@ export function rhatOfHalves(halves: readonly ArrayLike<number>[]): number {
   for (let j = 0; j < count; j++) {
     const h = halves[j];
     let s = 0;
-    for (let i = 0; i < n; i++) s += h[i];
-    const m = s / n;
+    let lo = h[0];
+    let hi = h[0];
+    for (let i = 0; i < n; i++) {
+      const v = h[i];
+      s += v;
+      if (v < lo) lo = v;
+      if (v > hi) hi = v;
+    }
+    // A constant half has variance exactly 0 (its rounded mean may differ from its value).
+    const m = lo === hi ? lo : s / n;
     let ss = 0;
-    for (let i = 0; i < n; i++) ss += (h[i] - m) * (h[i] - m);
+    if (lo !== hi) for (let i = 0; i < n; i++) ss += (h[i] - m) * (h[i] - m);
     means[j] = m;
     variances[j] = ss / (n - 1);
   }

@@ -27,8 +27,16 @@ function centreHalves(halves: readonly Float64Array[], centred: Float64Array, ha
   for (let j = 0; j < halves.length; j++) {
     const h = halves[j];
     let s = 0;
-    for (let i = 0; i < half; i++) s += h[i];
-    const m = s / half;
+    let lo = h[0];
+    let hi = h[0];
+    for (let i = 0; i < half; i++) {
+      const v = h[i];
+      s += v;
+      if (v < lo) lo = v;
+      if (v > hi) hi = v;
+    }
+    // A constant half is centred to exact zeros (its rounded mean may differ from its value).
+    const m = lo === hi ? lo : s / half;
     const view = centred.subarray(j * half, (j + 1) * half);
     for (let i = 0; i < half; i++) view[i] = h[i] - m;
     means[j] = m;

@@ -55,7 +55,7 @@ export interface RunningDiagnosticsOptions {
   names?: readonly string[];
   /** Largest autocovariance lag kept exactly (default 128; cost per draw is about this many multiply-adds per quantity). */
   lagWindow?: number;
-  /** Batch summaries per chain, even (default 64). */
+  /** Batch summaries per chain, even (default 256). */
   batches?: number;
   /** Reservoir size per chain, even (default 1024). */
   reservoir?: number;
@@ -97,7 +97,7 @@ export function createRunningDiagnostics(options: RunningDiagnosticsOptions): Ru
   const names = o.names ?? Array.from({ length: dim }, (_, j) => `x[${j}]`);
   if (names.length !== dim) throw new OptionError('options.names', `options.names: expected ${dim} names (one per quantity), got ${names.length}`);
   const lagWindow = o.lagWindow ?? 128;
-  const batches = o.batches ?? 64;
+  const batches = o.batches ?? 256;
   const reservoir = o.reservoir ?? 1024;
   const slots = chains * dim;
   return {
