@@ -72,9 +72,11 @@ export function readTraceFile(path: string, shape: TraceShape): ReadTrace {
   let goodBytes = Buffer.byteLength(header, 'utf8');
   let line = 2;
   let markBytes: number | null = shape.markRows === 0 ? goodBytes : null;
-  while (pos < text.length && rows < capacity) {
+  while (pos < text.length) {
     const end = text.indexOf('\n', pos);
+    if (end >= 0 && rows >= capacity) break;
     if (end < 0) {
+      if (shape.maxRows !== undefined && rows >= shape.maxRows) break;
       notes.push(
         `${shape.label}: the last line (${text.length - pos} characters, no newline) was cut off, probably when the run was interrupted; it was ignored`,
       );
