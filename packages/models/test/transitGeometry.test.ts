@@ -70,6 +70,21 @@ describe('sky-projected separation', () => {
     }
   });
 
+  it('stays at rounding level near conjunction, where Kepler’s equation is solved by series, for e up to 0.97', () => {
+    for (const e of [0, 0.1, 0.5, 0.9, 0.97]) {
+      for (const w of [-2.5, -0.3, 0.9, 2.2]) {
+        const orbit = { period: 5, tc: 0.2, eccentricity: e, omega: w, scaledSemiMajorAxis: 30, inclination: 1.5 };
+        for (let j = 0; j <= 80; j++) {
+          // Mean-anomaly offsets up to ±0.6 rad, the range where the series applies.
+          const t = orbit.tc + ((j / 80 - 0.5) * 1.2 * orbit.period) / (2 * Math.PI) + 7 * orbit.period;
+          const got = skySeparation(t, orbit).z;
+          const want = winnPosition(t, orbit).z;
+          expect(Math.abs(got - want), `e=${e} w=${w} t=${t}`).toBeLessThan(3e-14 * orbit.scaledSemiMajorAxis);
+        }
+      }
+    }
+  });
+
   it('is the impact parameter at conjunction (Winn 2010, eq. 7)', () => {
     for (const { orbit } of ORBITS) {
       const b = orbit.impactParameter ?? impactFromInclination(orbit.inclination as number, orbit.scaledSemiMajorAxis, orbit.eccentricity ?? 0, orbit.omega ?? 0);

@@ -85,6 +85,23 @@ describe('light-curve Gaussian log-likelihood', () => {
     expect(Math.abs((1 - single.lastModel[0]) - depth / 1.5)).toBeLessThan(1e-15);
   });
 
+  it('sums ln(var) accurately for any scale of the data (counts, tiny or huge errors)', () => {
+    const t = Float64Array.from({ length: 5000 }, (_, i) => -2 + i / 1250);
+    for (const scale of [1e-70, 1e-6, 1, 1e6, 1e70]) {
+      const y = Float64Array.from(t, (_, i) => scale * (1 + 1e-3 * Math.sin(i)));
+      const err = Float64Array.from(t, (_, i) => scale * 1e-3 * (1 + 0.5 * Math.cos(i)));
+      const l = createLightCurveLikelihood({ times: t, flux: y, errors: err, planets: 1 });
+      const p = Float64Array.from([3, 0, 0, 0, 9, 0.2, 0.1, 0.3, 0.2, scale, 0]);
+      const value = l.logLikelihood(p);
+      let ref = 0;
+      for (let i = 0; i < t.length; i++) {
+        const v = err[i] * err[i];
+        ref += -0.5 * ((y[i] - l.lastModel[i]) ** 2 / v + Math.log(2 * Math.PI * v));
+      }
+      expect(Math.abs(value - ref), `scale ${scale}`).toBeLessThan(1e-10 * Math.abs(ref));
+    }
+  });
+
   it('returns -Infinity with a zero gradient outside the support', () => {
     const grad = new Float64Array(like.dim).fill(7);
     const bad = Float64Array.from(truth);

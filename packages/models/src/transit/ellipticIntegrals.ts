@@ -93,6 +93,63 @@ export function celBasisInto(kc: number, p: number, out: Float64Array, at: numbe
   out[at + 1] = (a2 * m + b2) * scale;
 }
 
+/**
+ * The cel basis integrals for two characteristics sharing one modulus, in one
+ * iteration (the arithmetic–geometric-mean sequence depends on kc only): writes
+ * out[at..at+3] = [cel(kc, 1, 1, 0), cel(kc, 1, 0, 1), cel(kc, p, 1, 0), cel(kc, p, 0, 1)].
+ * No input checks (p > 0).
+ */
+export function celBasisPairInto(kc: number, p: number, out: Float64Array, at: number): void {
+  let qc = Math.abs(kc);
+  if (qc < KC_FLOOR) qc = KC_FLOOR;
+  let e = qc;
+  let m = 1;
+  // Characteristic 1: p1 = 1 (√1 = 1).
+  let p1 = 1;
+  let a1 = 1;
+  let b1 = 0;
+  let a2 = 0;
+  let b2 = 1;
+  // Characteristic p.
+  let pp = Math.sqrt(p);
+  let a3 = 1;
+  let b3 = 0;
+  let a4 = 0;
+  let b4 = 1 / pp;
+  for (;;) {
+    // One reciprocal per characteristic and step instead of three divisions.
+    const r1 = 1 / p1;
+    const g1 = e * r1;
+    const f1 = a1;
+    const f2 = a2;
+    a1 += b1 * r1;
+    a2 += b2 * r1;
+    b1 = 2 * (b1 + f1 * g1);
+    b2 = 2 * (b2 + f2 * g1);
+    p1 += g1;
+    const r2 = 1 / pp;
+    const g2 = e * r2;
+    const f3 = a3;
+    const f4 = a4;
+    a3 += b3 * r2;
+    a4 += b4 * r2;
+    b3 = 2 * (b3 + f3 * g2);
+    b4 = 2 * (b4 + f4 * g2);
+    pp += g2;
+    const mOld = m;
+    m += qc;
+    if (Math.abs(mOld - qc) <= mOld * MEANS_AGREE) break;
+    qc = 2 * Math.sqrt(e);
+    e = qc * m;
+  }
+  const s1 = HALF_PI / (m * (m + p1));
+  const s2 = HALF_PI / (m * (m + pp));
+  out[at] = (a1 * m + b1) * s1;
+  out[at + 1] = (a2 * m + b2) * s1;
+  out[at + 2] = (a3 * m + b3) * s2;
+  out[at + 3] = (a4 * m + b4) * s2;
+}
+
 function checkParameter(m: number, field: string): void {
   if (!(m >= 0 && m < 1)) {
     throw new TransitParameterError(field, m, 'a parameter m = k² in [0, 1)');

@@ -44,7 +44,7 @@
  *   inside:   ∂lin/∂k = 4k√a·E(1 - kc²),          ∂lin/∂z = -(4k√a/3)·cel(kc,1,1,-kc²).
  * All of this is checked against independent numerical integration in the tests.
  */
-import { celBasisInto, celUnchecked } from './ellipticIntegrals.js';
+import { celBasisPairInto } from './ellipticIntegrals.js';
 
 /** Offsets in the output of {@link occultedIntegralsInto}. */
 export const OCC_AREA = 0;
@@ -61,7 +61,7 @@ export const OCC_SIZE = 9;
 
 const PI = Math.PI;
 const THIRD_PI = PI / 3;
-const basis = new Float64Array(2);
+const basis = new Float64Array(4);
 
 /**
  * Occulted area, ∫ √(1 - r²) dA and ∫ r² dA over the lens, in units of R_*² (see the
@@ -100,13 +100,13 @@ export function occultedIntegralsInto(
     let kc2 = ((1 - s) * (1 + s)) / a;
     if (kc2 < 0) kc2 = 0;
     const kc = Math.sqrt(kc2);
-    celBasisInto(kc, 1, basis, 0);
+    celBasisPairInto(kc, 1 / a, basis, 0);
     const c2 = basis[0]; // cel(kc, 1, 1, 0)
     const s2 = basis[1]; // cel(kc, 1, 0, 1)
+    const pi3 = basis[2]; // cel(kc, 1/a, 1, 0)
     const ra = Math.sqrt(a);
     const zk2 = 2 * z * k;
     const six = 6 * k2 - 3;
-    const pi3 = celUnchecked(kc, 1 / a, 1, 0);
     out[at + OCC_AREA] = PI * k2;
     out[at + OCC_LIN] = THIRD_PI + ((2 * ra) / 9) * ((six - zk2) * c2 + kc2 * (six + zk2) * s2) - ((2 * ds) / (3 * ra)) * pi3;
     out[at + OCC_R2] = PI * k2 * (z2 + 0.5 * k2);
@@ -154,12 +154,12 @@ export function occultedIntegralsInto(
   let kc2 = s2m1 / (4 * zk);
   if (kc2 < 0) kc2 = 0;
   const kc = Math.sqrt(kc2);
-  celBasisInto(kc, 1, basis, 0);
+  celBasisPairInto(kc, (s * s) / (4 * zk), basis, 0);
   const c2 = basis[0];
   const s2 = basis[1];
   const alpha = (s2m1 * (6 * k2 + 2 * zk - 3) - 4 * zk * (7 * k2 + z2 - 4)) / 3;
   const beta = (a * s2m1) / 3;
-  const pi2 = celUnchecked(kc, (s * s) / (4 * zk), 1, kc2);
+  const pi2 = basis[2] + kc2 * basis[3]; // cel(kc, s²/(4zk), 1, kc²)
   const rzk = Math.sqrt(zk);
   out[at + OCC_AREA] = k2 * kappa0 + kappa1 - kite;
   out[at + OCC_LIN] = THIRD_PI - (alpha * c2 + beta * s2 + ds * pi2) / (3 * rzk);

@@ -11,6 +11,12 @@
  * z² = C² + S² cos² i. Derivatives use ∂E/∂M = 1/(1 - e cos E),
  * ∂E/∂e|_M = sin E/(1 - e cos E) (implicit function theorem on Kepler's equation),
  * plus the dependence of M_c and cos i on e and omega.
+ *
+ * Near conjunction (|M - M_c| small, which is every point a transit can touch) Kepler's
+ * equation is solved here for δ = E - E_c by Newton's method with sin δ and cos δ from
+ * their Taylor series and sin E, cos E by angle addition, so no trigonometric call is
+ * made; elsewhere the general solver of `orbit/kepler.ts` is used. Both agree to
+ * rounding level (tested).
  */
 import { solveKeplerInto } from '../orbit/kepler.js';
 import {
@@ -18,6 +24,7 @@ import {
   TD_CI_DANGLE,
   TD_CI_DE,
   TD_CI_DW,
+  TD_COS_EC,
   TD_COS_I,
   TD_CW,
   TD_E,
@@ -28,6 +35,7 @@ import {
   TD_PERIOD,
   TD_ROOT,
   TD_SCALED_AXIS,
+  TD_SIN_EC,
   TD_SW,
   TD_TC,
 } from './transitParameters.js';
@@ -37,6 +45,78 @@ export const SEP_Z = 0;
 export const SEP_SIZE = 7;
 
 const kepler = new Float64Array(3);
+
+/** Largest |E - E_c| for the series below (truncation under 1e-18 there). */
+const SERIES_LIMIT = 0.7;
+// Reciprocals 1/((2j)(2j+1)) and 1/((2j-1)(2j)) for the Horner forms of sin and cos
+// (multiplications: a chain of divisions would be several times slower).
+const S1 = 1 / 6;
+const S2 = 1 / 20;
+const S3 = 1 / 42;
+const S4 = 1 / 72;
+const S5 = 1 / 110;
+const S6 = 1 / 156;
+const S7 = 1 / 210;
+const S8 = 1 / 272;
+const C2 = 1 / 12;
+const C3 = 1 / 30;
+const C4 = 1 / 56;
+const C5 = 1 / 90;
+const C6 = 1 / 132;
+const C7 = 1 / 182;
+const C8 = 1 / 240;
+
+/**
+ * Writes sin E, cos E into out[1], out[2] for E = E_c + δ solving Kepler's equation at
+ * M = M_c + dM, with sin E_c = sEc, cos E_c = cEc, by Halley's method in δ (cubic
+ * convergence). Since M_c = E_c - e sin E_c, the residual is
+ * f(δ) = δ - e (sin E - sin E_c) - dM, with f' = 1 - e cos E and f'' = e sin E.
+ * sin δ and cos δ - 1 come from their Taylor series to δ^17 and δ^16 at the first
+ * iterate; later, small steps h rotate (sin E, cos E) by angle addition with the
+ * series of sin h, cos h to h^7, h^8 (truncation below 1e-21 for |h| < 0.02).
+ * Returns false (writing nothing) when |δ| would leave the series' range or the
+ * iteration does not settle.
+ */
+function keplerNearConjunction(dM: number, e: number, sEc: number, cEc: number, out: Float64Array): boolean {
+  let d = dM / (1 - e * cEc);
+  if (!(Math.abs(d) < 0.5)) return false;
+  let sinE = 0;
+  let cosE = 0;
+  let fresh = true;
+  for (let iter = 0; iter < 8; iter++) {
+    if (fresh) {
+      const d2 = d * d;
+      const sd = d * (1 - d2 * S1 * (1 - d2 * S2 * (1 - d2 * S3 * (1 - d2 * S4 * (1 - d2 * S5 * (1 - d2 * S6 * (1 - d2 * S7 * (1 - d2 * S8))))))));
+      const cm1 = -0.5 * d2 * (1 - d2 * C2 * (1 - d2 * C3 * (1 - d2 * C4 * (1 - d2 * C5 * (1 - d2 * C6 * (1 - d2 * C7 * (1 - d2 * C8)))))));
+      sinE = sEc + (sEc * cm1 + cEc * sd);
+      cosE = cEc + (cEc * cm1 - sEc * sd);
+      fresh = false;
+    }
+    const f = d - e * (sinE - sEc) - dM;
+    const f1 = 1 - e * cosE;
+    const newton = f / f1;
+    const h = newton / (1 - (0.5 * newton * e * sinE) / f1);
+    d -= h;
+    if (!(Math.abs(d) < SERIES_LIMIT)) return false;
+    if (Math.abs(h) < 0.02) {
+      const h2 = h * h;
+      const sh = h * (1 - h2 * S1 * (1 - h2 * S2 * (1 - h2 * S3)));
+      const ch = 1 - 0.5 * h2 * (1 - h2 * C2 * (1 - h2 * C3 * (1 - h2 * C4)));
+      const s = sinE * ch - cosE * sh;
+      cosE = cosE * ch + sinE * sh;
+      sinE = s;
+      // Halley's cubic convergence: a step this small leaves an error below 1e-25.
+      if (Math.abs(h) < 1e-9) {
+        out[1] = sinE;
+        out[2] = cosE;
+        return true;
+      }
+    } else {
+      fresh = true;
+    }
+  }
+  return false;
+}
 
 /**
  * Separation at time `t` (days, same epoch as tc) for the decoded planet at
@@ -61,8 +141,12 @@ export function separationInto(
   const cw = d[o + TD_CW];
   const ci = d[o + TD_COS_I];
   const n = d[o + TD_N];
+  const P = d[o + TD_PERIOD];
   const dt = t - d[o + TD_TC];
-  solveKeplerInto(n * dt + d[o + TD_MC], e, kepler, 0);
+  const dM = n * (dt - P * Math.round(dt / P));
+  if (!keplerNearConjunction(dM, e, d[o + TD_SIN_EC], d[o + TD_COS_EC], kepler)) {
+    solveKeplerInto(n * dt + d[o + TD_MC], e, kepler, 0);
+  }
   const sE = kepler[1];
   const cE = kepler[2];
   const x = aR * (cE - e);
@@ -86,7 +170,7 @@ export function separationInto(
       const SE = xE * sw + yE * cw;
       const zE = (C * CE + S * ci2 * SE) * invZ; // ∂z/∂E
       const zM = zE * iD; // ∂z/∂M
-      out[at + 1] = zM * ((-n * dt) / d[o + TD_PERIOD]);
+      out[at + 1] = zM * ((-n * dt) / P);
       out[at + 2] = -zM * n;
       // Eccentricity: through E (at fixed M and via M_c), x, y directly, and cos i.
       const dEde = iD * (sE + d[o + TD_MC_DE]);

@@ -53,7 +53,7 @@ export function transitParameterNames(planets: number, angle: TransitAngleForm):
 }
 
 /** Slots per planet in a decoded block (see {@link decodeTransitPlanets}). */
-export const TD_STRIDE = 20;
+export const TD_STRIDE = 22;
 export const TD_PERIOD = 0;
 export const TD_TC = 1;
 export const TD_E = 2;
@@ -74,6 +74,8 @@ export const TD_CI_DANGLE = 16; // d cos i / db, or d cos i / di = -sin i
 export const TD_WINDOW_LO = 17; // earliest time offset from tc that can be in transit (<= 0), days
 export const TD_WINDOW_HI = 18; // latest time offset from tc that can be in transit (>= 0), days
 export const TD_WINDOWED = 19; // 1 if the window is narrower than the period, else 0
+export const TD_SIN_EC = 20; // sin of the eccentric anomaly at conjunction
+export const TD_COS_EC = 21; // cos of the eccentric anomaly at conjunction
 
 const HALF_PI = Math.PI / 2;
 
@@ -89,6 +91,8 @@ function conjunctionInto(e: number, sw: number, cw: number, root: number, d: Flo
   const den = 1 + e * sw;
   const Ec = Math.atan2(root * cw, e + sw);
   d[o + TD_MC] = Ec - (e * root * cw) / den;
+  d[o + TD_SIN_EC] = (root * cw) / den;
+  d[o + TD_COS_EC] = (e + sw) / den;
   d[o + TD_MC_DW] = -(root * root * root) / (den * den);
   d[o + TD_MC_DE] = (-root * cw * (2 + e * sw)) / (den * den);
 }
