@@ -82,6 +82,8 @@ describe('exact float64 terms in a TensorFlow.js likelihood', () => {
     const vtf = model.logDensityGrad(position, gtf);
     expect(Math.abs(v64)).toBeGreaterThan(1e3);
     expect(Math.abs(vtf - v64)).toBeLessThan(1e-12 * Math.abs(v64));
+    // Float32 alone could not: its spacing at |log L| ≈ 1e4 is ~1e-3.
+    expect(Math.abs(Math.fround(v64) - v64)).toBeGreaterThan(1e-5);
     // Gradients pass through float32 once: relative accuracy ~6e-8 (common practice).
     for (let i = 0; i < 2; i++) expect(Math.abs(gtf[i] - g64[i])).toBeLessThan(1e-6 * Math.abs(g64[i]));
     model.dispose();
