@@ -56,15 +56,10 @@ export function radixArgsort(values: Float64Array, order: Uint32Array, sorted: F
   const words = new Uint32Array(values.buffer, values.byteOffset, 2 * n);
   const loOff = LITTLE_ENDIAN ? 0 : 1;
   const hiOff = 1 - loOff;
-  let hi = buffers.hiA;
-  let lo = buffers.loA;
-  let idx = buffers.idxA;
-  let hi2 = buffers.hiB;
-  let lo2 = buffers.loB;
-  let idx2 = buffers.idxB;
   if (buffers.counts === null) buffers.counts = new Uint32Array(4 * 65536);
   const counts = buffers.counts;
   counts.fill(0);
+  // Histogram pass: the four 16-bit digits of every transformed key.
   for (let i = 0; i < n; i++) {
     let h = words[2 * i + hiOff];
     let l = words[2 * i + loOff];
@@ -74,47 +69,78 @@ export function radixArgsort(values: Float64Array, order: Uint32Array, sorted: F
     } else {
       h = (h | 0x80000000) >>> 0;
     }
-    hi[i] = h;
-    lo[i] = l;
-    idx[i] = i;
     counts[l & 0xffff]++;
     counts[65536 + (l >>> 16)]++;
     counts[131072 + (h & 0xffff)]++;
     counts[196608 + (h >>> 16)]++;
   }
+  const skip = [false, false, false, false];
   for (let pass = 0; pass < 4; pass++) {
     const base = pass * 65536;
-    const first = pass === 0 ? lo[0] & 0xffff : pass === 1 ? lo[0] >>> 16 : pass === 2 ? hi[0] & 0xffff : hi[0] >>> 16;
-    if (n === 0 || counts[base + first] === n) continue; // every key shares this digit
     let total = 0;
     for (let d = 0; d < 65536; d++) {
       const c = counts[base + d];
+      if (c === n) skip[pass] = true; // every key shares this digit: the pass would not move anything
       counts[base + d] = total;
       total += c;
     }
-    const useLo = pass < 2;
-    const shift = pass % 2 === 0 ? 0 : 16;
-    const keys = useLo ? lo : hi;
+  }
+  // Pass 1 (low 16 bits of the low word) reads the keys straight from the values; later
+  // passes carry only what the remaining passes need: after pass 2 the low word is dropped,
+  // and the last pass moves the indices alone.
+  let hi = buffers.hiA;
+  let lo = buffers.loA;
+  let idx = buffers.idxA;
+  let hi2 = buffers.hiB;
+  let lo2 = buffers.loB;
+  let idx2 = buffers.idxB;
+  for (let i = 0; i < n; i++) {
+    let h = words[2 * i + hiOff];
+    let l = words[2 * i + loOff];
+    if (h & 0x80000000) {
+      h = ~h >>> 0;
+      l = ~l >>> 0;
+    } else {
+      h = (h | 0x80000000) >>> 0;
+    }
+    const at = skip[0] ? i : counts[l & 0xffff]++;
+    hi[at] = h;
+    lo[at] = l;
+    idx[at] = i;
+  }
+  if (!skip[1]) {
     for (let i = 0; i < n; i++) {
-      const digit = (keys[i] >>> shift) & 0xffff;
-      const at = counts[base + digit]++;
+      const at = counts[65536 + (lo[i] >>> 16)]++;
       hi2[at] = hi[i];
-      lo2[at] = lo[i];
       idx2[at] = idx[i];
     }
     let t = hi;
     hi = hi2;
     hi2 = t;
+    t = idx;
+    idx = idx2;
+    idx2 = t;
     t = lo;
     lo = lo2;
     lo2 = t;
+  }
+  if (!skip[2]) {
+    for (let i = 0; i < n; i++) {
+      const at = counts[131072 + (hi[i] & 0xffff)]++;
+      hi2[at] = hi[i];
+      idx2[at] = idx[i];
+    }
+    let t = hi;
+    hi = hi2;
+    hi2 = t;
     t = idx;
     idx = idx2;
     idx2 = t;
   }
-  for (let i = 0; i < n; i++) {
-    const k = idx[i];
-    order[i] = k;
-    sorted[i] = values[k];
+  if (!skip[3]) {
+    for (let i = 0; i < n; i++) order[counts[196608 + (hi[i] >>> 16)]++] = idx[i];
+  } else {
+    for (let i = 0; i < n; i++) order[i] = idx[i];
   }
+  for (let i = 0; i < n; i++) sorted[i] = values[order[i]];
 }

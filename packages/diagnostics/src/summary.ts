@@ -214,12 +214,24 @@ export function summarizeDraws(draws: readonly ArrayLike<number>[], options: Dra
     }
   });
   const levels = checkQuantiles(options);
-  const column = (j: number): Float64Array[] =>
-    draws.map((chain) => {
-      const n = chain.length / dim;
-      const out = new Float64Array(n);
-      for (let i = 0, k = j; i < n; i++, k += dim) out[i] = chain[k];
-      return out;
-    });
+  // Columns are copied out eight at a time (one 64-byte cache line of a row), into buffers
+  // reused from group to group, so the strided reads use every byte they bring in.
+  const group = 8;
+  let first = -1;
+  let buffers: Float64Array[][] = [];
+  const column = (j: number): Float64Array[] => {
+    const start = j - (j % group);
+    if (start !== first) {
+      const width = Math.min(group, dim - start);
+      buffers = draws.map((chain, c) => {
+        const n = chain.length / dim;
+        const out = Array.from({ length: width }, (_, w) => (buffers[c]?.[w]?.length === n ? buffers[c][w] : new Float64Array(n)));
+        for (let i = 0, k = start; i < n; i++, k += dim) for (let w = 0; w < width; w++) out[w][i] = chain[k + w];
+        return out;
+      });
+      first = start;
+    }
+    return buffers.map((b) => b[j - start]);
+  };
   return summarizeEach(names, column, levels);
 }

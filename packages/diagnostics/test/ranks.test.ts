@@ -38,6 +38,27 @@ describe('ranks', () => {
     }
   });
 
+  it('the radix argsort handles keys whose digits coincide (skipped passes): small integers, a narrow range, negatives only', () => {
+    const rng = createRandom(19);
+    const n = 20000;
+    const cases = [
+      (i: number) => Math.round(50 * rng.normal()) + 0 * i, // low word all zero: passes 1 and 2 skipped
+      () => 1 + 1e-5 * rng.uniform(), // one sign, exponent and leading mantissa: pass 4 skipped
+      () => -Math.exp(rng.normal()),
+    ];
+    for (const make of cases) {
+      const values = Float64Array.from({ length: n }, (_, i) => make(i));
+      const order = new Uint32Array(n);
+      const sorted = new Float64Array(n);
+      radixArgsort(values, order, sorted, createRadixSortBuffers(n));
+      const reference = sortedCopy(values);
+      for (let i = 0; i < n; i++) {
+        expect(sorted[i]).toBe(reference[i]);
+        expect(values[order[i]]).toBe(sorted[i]);
+      }
+    }
+  });
+
   it('scores from the sort permutation equal scores by binary search; folded order equals sorting |x - median|', () => {
     const rng = createRandom(10);
     const n = 3001;

@@ -103,17 +103,18 @@ describe('summary table', () => {
   it('summarizeDraws reads column j of each row-major draws x dim matrix as quantity j', () => {
     const chains = 3;
     const n = 200;
-    const dim = 2;
-    const columns = [chainsOf(chains, () => normalDraws(rng, n)), chainsOf(chains, () => normalDraws(rng, n).map((v) => 10 + v))];
+    const dim = 11; // more than one group of eight columns, the last one partial
+    const columns = Array.from({ length: dim }, (_, j) => chainsOf(chains, () => normalDraws(rng, n).map((v) => 10 * j + v)));
     const matrices = Array.from({ length: chains }, (_, c) => {
       const m = new Float64Array(n * dim);
       for (let i = 0; i < n; i++) for (let j = 0; j < dim; j++) m[i * dim + j] = columns[j][c][i];
       return m;
     });
-    const fromMatrix = summarizeDraws(matrices, { dim, names: ['a', 'b'] });
-    const direct = summarize({ a: columns[0], b: columns[1] });
+    const names = columns.map((_, j) => `q${j}`);
+    const fromMatrix = summarizeDraws(matrices, { dim, names });
+    const direct = summarize(names.map((name, j) => ({ name, chains: columns[j] })));
     expect(fromMatrix.rows).toEqual(direct.rows);
-    expect(summarizeDraws(matrices, { dim }).rows.map((r) => r.name)).toEqual(['x[0]', 'x[1]']);
+    expect(summarizeDraws(matrices, { dim }).rows.map((r) => r.name).slice(0, 2)).toEqual(['x[0]', 'x[1]']);
   });
 
   it('unequal chain lengths are cut to the shortest, with a notice in the result', () => {
