@@ -41,6 +41,7 @@ describe('light-curve kernel', () => {
       [5.5, 1.0, 0.8, -2.0, 4.5, 0.2, 0.15], // close, very eccentric: wide window
       [2.1, 0.3, 0.6, 2.8, 3.2, 0.9, 0.3], // transit near periastron, grazing
       [8.0, 3.9, 0.2, 4.0, 14, 0.0, 0.05],
+      [4.4, -0.7, 0.3, 0.5, 12, 1.08, 0.1], // grazing: the inclination-aware window is tight
     ];
     const times = linspace(-30, 60, 40001);
     for (const block of blocks) {
@@ -54,6 +55,18 @@ describe('light-curve kernel', () => {
       }
       expect(inTransit).toBeGreaterThan(10);
     }
+  });
+
+  it('gives flux 1 and a zero gradient for a planet that never overlaps the star', () => {
+    const times = linspace(-5, 5, 2001);
+    const kernel = createLightCurveKernel({ times, planets: 1, exposureTime: 0.02, subSamples: 3 });
+    // b = 1.1 + 0.02: misses the disk by 0.02 stellar radii at conjunction.
+    const params = vector([3, 0, 0.1, 0.4, 8, 1.12, 0.1], U);
+    const grad = new Float64Array(kernel.parameterCount).fill(5);
+    const flux = kernel.vjp(params, new Float64Array(times.length).fill(1), grad);
+    expect(flux.every((f) => f === 1)).toBe(true);
+    expect(grad.every((g) => g === 0)).toBe(true);
+    for (const t of [0, 0.01, -0.01]) expect(bruteForce(t, [3, 0, 0.1, 0.4, 8, 1.12, 0.1], U[0], U[1])).toBe(1);
   });
 
   it('accepts the inclination form and adds planets as 1 - Σ deficits', () => {

@@ -20,7 +20,7 @@
 import { z } from 'zod';
 import { LightCurveDataError, TransitParameterError, TransitWorkspaceError } from './errors.js';
 import { quadraticFluxPartialsUnchecked, quadraticFluxUnchecked } from './quadraticFlux.js';
-import { separationInto } from './skySeparation.js';
+import { separationInto, separationPartialsInto } from './skySeparation.js';
 import {
   TD_K,
   TD_PERIOD,
@@ -193,7 +193,13 @@ export function createLightCurveKernel(options: LightCurveOptions): LightCurveKe
       const reach = 1 + k;
       const P = decoded[o + TD_PERIOD];
       const tc = decoded[o + TD_TC];
-      const windowed = decoded[o + TD_WINDOWED] === 1;
+      const windowState = decoded[o + TD_WINDOWED];
+      if (windowState === 2) {
+        // This planet never overlaps the star: flux 1 and zero partials everywhere.
+        jacCount[p] = 0;
+        continue;
+      }
+      const windowed = windowState === 1;
       const lo = decoded[o + TD_WINDOW_LO];
       const width = decoded[o + TD_WINDOW_HI] - lo;
       const rows = jacRows[p];
@@ -221,8 +227,16 @@ export function createLightCurveKernel(options: LightCurveOptions): LightCurveKe
         let a7 = 0;
         let a8 = 0;
         for (let j = 0; j < ns; j++) {
-          const tj = ns === 1 ? t : t - h + step * (j + 0.5);
-          const inFront = separationInto(tj, decoded, o, withPartials, sep, 0);
+          let tj = t;
+          if (ns > 1) {
+            tj = t - h + step * (j + 0.5);
+            if (windowed) {
+              let v = tj - tc - lo;
+              v -= P * Math.floor(v / P);
+              if (v > width) continue;
+            }
+          }
+          const inFront = separationInto(tj, decoded, o, sep, 0);
           const zj = sep[0];
           if (!inFront || zj >= reach) continue;
           touched = true;
@@ -230,6 +244,7 @@ export function createLightCurveKernel(options: LightCurveOptions): LightCurveKe
             deficit += 1 - quadraticFluxUnchecked(zj, k, u1, u2);
             continue;
           }
+          separationPartialsInto(decoded, o, sep, 1);
           deficit += 1 - quadraticFluxPartialsUnchecked(zj, k, u1, u2, fp, 0);
           const dz = fp[1];
           a0 += dz * sep[1];

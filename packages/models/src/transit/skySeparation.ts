@@ -40,11 +40,18 @@ import {
   TD_TC,
 } from './transitParameters.js';
 
-/** Offsets written by {@link separationInto}: z, then ∂z/∂(P, tc, e, omega, a/R_*, angle). */
+/** Offsets written: z by {@link separationInto}, then ∂z/∂(P, tc, e, omega, a/R_*, angle) by {@link separationPartialsInto}. */
 export const SEP_Z = 0;
 export const SEP_SIZE = 7;
 
 const kepler = new Float64Array(3);
+// Intermediates of the last separationInto call, read by separationPartialsInto.
+let lastDt = 0;
+let lastSinE = 0;
+let lastCosE = 0;
+let lastC = 0;
+let lastS = 0;
+let lastZ = 0;
 
 /** Largest |E - E_c| for the series below (truncation under 1e-18 there). */
 const SERIES_LIMIT = 0.7;
@@ -119,21 +126,12 @@ function keplerNearConjunction(dM: number, e: number, sEc: number, cEc: number, 
 }
 
 /**
- * Separation at time `t` (days, same epoch as tc) for the decoded planet at
- * `d[o..]`; writes z at out[at] and, when `withPartials`, ∂z/∂P, ∂z/∂tc, ∂z/∂e,
- * ∂z/∂omega, ∂z/∂(a/R_*), ∂z/∂(b or i) at out[at+1..at+6]. Returns true when the
- * planet is in front of the star (Z > 0). At z = 0 the partials are set to 0 (z is
- * not differentiable there, but every smooth function of z², such as the flux, has a
- * zero derivative). No input checks.
+ * Separation at time `t` (days, same epoch as tc) for the decoded planet at `d[o..]`;
+ * writes z (stellar radii) at out[at] and returns true when the planet is in front of
+ * the star (Z > 0). Keeps its intermediates for {@link separationPartialsInto}.
+ * No input checks.
  */
-export function separationInto(
-  t: number,
-  d: Float64Array,
-  o: number,
-  withPartials: boolean,
-  out: Float64Array,
-  at: number,
-): boolean {
+export function separationInto(t: number, d: Float64Array, o: number, out: Float64Array, at: number): boolean {
   const e = d[o + TD_E];
   const aR = d[o + TD_SCALED_AXIS];
   const root = d[o + TD_ROOT];
@@ -153,42 +151,65 @@ export function separationInto(
   const y = aR * root * sE;
   const C = x * cw - y * sw;
   const S = x * sw + y * cw;
-  const ci2 = ci * ci;
-  const z2 = C * C + S * S * ci2;
-  const z = Math.sqrt(z2);
+  const z = Math.sqrt(C * C + S * S * ci * ci);
+  lastDt = dt;
+  lastSinE = sE;
+  lastCosE = cE;
+  lastC = C;
+  lastS = S;
+  lastZ = z;
   out[at] = z;
-  if (withPartials) {
-    if (z === 0) {
-      for (let i = 1; i < 7; i++) out[at + i] = 0;
-    } else {
-      const invZ = 1 / z;
-      const iD = 1 / (1 - e * cE);
-      // Derivatives of (x, y) along E.
-      const xE = -aR * sE;
-      const yE = aR * root * cE;
-      const CE = xE * cw - yE * sw;
-      const SE = xE * sw + yE * cw;
-      const zE = (C * CE + S * ci2 * SE) * invZ; // ∂z/∂E
-      const zM = zE * iD; // ∂z/∂M
-      out[at + 1] = zM * ((-n * dt) / P);
-      out[at + 2] = -zM * n;
-      // Eccentricity: through E (at fixed M and via M_c), x, y directly, and cos i.
-      const dEde = iD * (sE + d[o + TD_MC_DE]);
-      const xe = xE * dEde - aR;
-      const ye = yE * dEde - (aR * e * sE) / root;
-      const Ce = xe * cw - ye * sw;
-      const Se = xe * sw + ye * cw;
-      const S2ci = S * S * ci;
-      out[at + 3] = (C * Ce + S * ci2 * Se + S2ci * d[o + TD_CI_DE]) * invZ;
-      // Argument of periastron: through M_c, the rotation (∂C/∂omega = -S,
-      // ∂S/∂omega = C) and cos i.
-      const dEdw = iD * d[o + TD_MC_DW];
-      const Cw = CE * dEdw - S;
-      const Sw = SE * dEdw + C;
-      out[at + 4] = (C * Cw + S * ci2 * Sw + S2ci * d[o + TD_CI_DW]) * invZ;
-      out[at + 5] = (z2 / aR + S2ci * d[o + TD_CI_DA]) * invZ;
-      out[at + 6] = S2ci * d[o + TD_CI_DANGLE] * invZ;
-    }
-  }
   return S > 0;
+}
+
+/**
+ * Partial derivatives of the separation computed by the last {@link separationInto}
+ * call (same planet `d[o..]`): writes ∂z/∂P, ∂z/∂tc, ∂z/∂e, ∂z/∂omega, ∂z/∂(a/R_*),
+ * ∂z/∂(b or i) at out[at..at+5]. At z = 0 they are set to 0 (z is not differentiable
+ * there, but every smooth function of z², such as the flux, has a zero derivative).
+ */
+export function separationPartialsInto(d: Float64Array, o: number, out: Float64Array, at: number): void {
+  const z = lastZ;
+  if (z === 0) {
+    for (let i = 0; i < 6; i++) out[at + i] = 0;
+    return;
+  }
+  const e = d[o + TD_E];
+  const aR = d[o + TD_SCALED_AXIS];
+  const root = d[o + TD_ROOT];
+  const sw = d[o + TD_SW];
+  const cw = d[o + TD_CW];
+  const ci = d[o + TD_COS_I];
+  const n = d[o + TD_N];
+  const sE = lastSinE;
+  const cE = lastCosE;
+  const C = lastC;
+  const S = lastS;
+  const ci2 = ci * ci;
+  const invZ = 1 / z;
+  const iD = 1 / (1 - e * cE);
+  // Derivatives of (x, y) along E.
+  const xE = -aR * sE;
+  const yE = aR * root * cE;
+  const CE = xE * cw - yE * sw;
+  const SE = xE * sw + yE * cw;
+  const zM = (C * CE + S * ci2 * SE) * invZ * iD; // ∂z/∂M
+  out[at] = zM * ((-n * lastDt) / d[o + TD_PERIOD]);
+  out[at + 1] = -zM * n;
+  // Eccentricity: through E (at fixed M and via M_c), x, y directly, and cos i.
+  const dEde = iD * (sE + d[o + TD_MC_DE]);
+  const xe = xE * dEde - aR;
+  const ye = yE * dEde - (aR * e * sE) / root;
+  const Ce = xe * cw - ye * sw;
+  const Se = xe * sw + ye * cw;
+  const S2ci = S * S * ci;
+  out[at + 2] = (C * Ce + S * ci2 * Se + S2ci * d[o + TD_CI_DE]) * invZ;
+  // Argument of periastron: through M_c, the rotation (∂C/∂omega = -S,
+  // ∂S/∂omega = C) and cos i.
+  const dEdw = iD * d[o + TD_MC_DW];
+  const Cw = CE * dEdw - S;
+  const Sw = SE * dEdw + C;
+  out[at + 3] = (C * Cw + S * ci2 * Sw + S2ci * d[o + TD_CI_DW]) * invZ;
+  out[at + 4] = ((z * z) / aR + S2ci * d[o + TD_CI_DA]) * invZ;
+  out[at + 5] = S2ci * d[o + TD_CI_DANGLE] * invZ;
 }

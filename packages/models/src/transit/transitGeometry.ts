@@ -6,7 +6,7 @@
  */
 import { z } from 'zod';
 import { TransitParameterError } from './errors.js';
-import { separationInto } from './skySeparation.js';
+import { separationInto, separationPartialsInto } from './skySeparation.js';
 import { TD_STRIDE, TRANSIT_PLANET_STRIDE, decodeTransitPlanets, transitParameterNames, type TransitAngleForm } from './transitParameters.js';
 
 /** One planet's orbit for the geometry functions. Give impactParameter or inclination. */
@@ -88,7 +88,7 @@ function checkTime(time: number): void {
 export function skySeparation(time: number, orbit: TransitOrbit): SkyPosition {
   checkTime(time);
   decode(orbit);
-  const inFront = separationInto(time, decoded, 0, false, scratch, 0);
+  const inFront = separationInto(time, decoded, 0, scratch, 0);
   return { z: scratch[0], inFront };
 }
 
@@ -104,5 +104,7 @@ export function skySeparationWithPartials(time: number, orbit: TransitOrbit, out
     throw new TransitParameterError('out', out, `a Float64Array with room for 7 values from offset ${String(at)}`);
   }
   decode(orbit);
-  return separationInto(time, decoded, 0, true, out, at);
+  const inFront = separationInto(time, decoded, 0, out, at);
+  separationPartialsInto(decoded, 0, out, at + 1);
+  return inFront;
 }

@@ -73,7 +73,7 @@ export const TD_CI_DA = 15; // d cos i / d(a/R_*)
 export const TD_CI_DANGLE = 16; // d cos i / db, or d cos i / di = -sin i
 export const TD_WINDOW_LO = 17; // earliest time offset from tc that can be in transit (<= 0), days
 export const TD_WINDOW_HI = 18; // latest time offset from tc that can be in transit (>= 0), days
-export const TD_WINDOWED = 19; // 1 if the window is narrower than the period, else 0
+export const TD_WINDOWED = 19; // 1: window narrower than the period; 2: never overlaps; 0: no window
 export const TD_SIN_EC = 20; // sin of the eccentric anomaly at conjunction
 export const TD_COS_EC = 21; // cos of the eccentric anomaly at conjunction
 
@@ -109,13 +109,21 @@ function wrapPositive(x: number): number {
   return x - t * Math.floor(x / t);
 }
 
+/** √(reach² - r² cos² i)/(r sin i), or -1 when reach² ≤ r² cos² i. */
+function cosineBound(reach2: number, r: number, ci: number, si: number): number {
+  const chord2 = reach2 - r * r * ci * ci;
+  return chord2 > 0 ? Math.sqrt(chord2) / (si * r) : -1;
+}
+
 /**
  * The time window around each conjunction outside which the planet cannot overlap the
- * star: z ≥ |X| = r |cos(omega + f)| and the planet must be in front (sin(omega + f) > 0),
- * so overlap needs omega + f within asin((1 + k)/r_min) of pi/2, with r_min the
- * smallest star-planet distance over that arc (periastron distance first, then the
- * smaller end of the arc, which can only shrink the arc). Written as time offsets from
- * tc, widened by a relative margin for rounding.
+ * star. Since z² = C² + S² cos² i with C = r cos(omega + f), S² = r² - C²,
+ * z² = C² sin² i + r² cos² i; overlap (z < 1 + k) with the planet in front
+ * (sin(omega + f) > 0) therefore needs |cos(omega + f)| < √((1 + k)² - r_min² cos² i)
+ * / (r_min sin i), with r_min the smallest star-planet distance over that arc:
+ * periastron distance first, then the smaller end of the arc (which only narrows it).
+ * If (1 + k)² ≤ r_min² cos² i the planet never overlaps the star. Written as time
+ * offsets from tc, widened by a relative margin for rounding.
  */
 function windowInto(d: Float64Array, o: number, omega: number): void {
   const e = d[o + TD_E];
@@ -123,14 +131,21 @@ function windowInto(d: Float64Array, o: number, omega: number): void {
   const k = d[o + TD_K];
   const root = d[o + TD_ROOT];
   const P = d[o + TD_PERIOD];
+  const ci = d[o + TD_COS_I];
+  const si = Math.sqrt((1 - ci) * (1 + ci));
   d[o + TD_WINDOWED] = 0;
   d[o + TD_WINDOW_LO] = -P;
   d[o + TD_WINDOW_HI] = P;
-  const reach = 1 + k;
+  const reach2 = (1 + k) * (1 + k);
   let rMin = aR * (1 - e);
-  if (!(reach < rMin)) return;
+  let c0 = cosineBound(reach2, rMin, ci, si);
+  if (c0 < 0) {
+    d[o + TD_WINDOWED] = 2; // never overlaps
+    return;
+  }
+  if (!(c0 < 1)) return;
   const fc = HALF_PI - omega;
-  let half = Math.asin(reach / rMin);
+  let half = Math.asin(c0);
   // Refine once: r(f) over [fc - half, fc + half] is smallest at an end, unless the
   // arc contains periastron (f = 0 mod 2 pi).
   const lo = fc - half;
@@ -140,7 +155,12 @@ function windowInto(d: Float64Array, o: number, omega: number): void {
     const r1 = p / (1 + e * Math.cos(fc - half));
     const r2 = p / (1 + e * Math.cos(fc + half));
     rMin = Math.min(r1, r2);
-    half = Math.asin(Math.min(1, reach / rMin));
+    c0 = cosineBound(reach2, rMin, ci, si);
+    if (c0 < 0) {
+      d[o + TD_WINDOWED] = 2;
+      return;
+    }
+    half = Math.asin(Math.min(1, c0));
   }
   const Mc = d[o + TD_MC];
   const n = d[o + TD_N];
