@@ -73,15 +73,16 @@ export interface TensorContext {
 /**
  * A log-likelihood written with TensorFlow.js ops. `params` holds one float32 tensor
  * per parameter (scalar, or 1-D of the parameter's length) on the gradient tape;
- * `exact` holds the same values in float64 (the side channel). Return one scalar, or
- * an array of scalar terms to be summed: terms made by `context.exactTerm` then enter
- * the log-density with their float64 values.
+ * `exact` holds the same values in float64 (the side channel). Return one scalar
+ * (rank-0) tensor, or an array of them to be summed: terms made by
+ * `context.exactTerm` then enter the log-density with their float64 values. (Typed as
+ * `Tensor` because TensorFlow.js ops are; the rank is checked at run time.)
  */
 export type TensorLogLikelihood = (
   params: Readonly<Record<string, Tensor>>,
   exact: ExactValues,
   context: TensorContext,
-) => Scalar | readonly Scalar[];
+) => Tensor | readonly Tensor[];
 
 /** A likelihood written with TensorFlow.js ops (differentiated by its tape). */
 export interface TensorLikelihood {

@@ -78,7 +78,7 @@ export function compileTensorTerm(
   ): Scalar => {
     for (let i = 0; i < params.length; i++) paramRecord[params[i].name] = xs[i];
     const out = likelihood.logLikelihood(record, exact, ctx);
-    const terms: readonly Scalar[] = Array.isArray(out) ? out : [out as Scalar];
+    const terms: readonly Tensor[] = Array.isArray(out) ? out : [out as Tensor];
     if (terms.length === 0) {
       throw new ModelDeclarationError('likelihood', out, 'a scalar tensor or a non-empty array of scalar tensors');
     }
@@ -107,7 +107,7 @@ export function compileTensorTerm(
     }
     const restTensor = rest.length === 0 ? null : rest.length === 1 ? rest[0] : (tf.addN(rest) as Scalar);
     restValue = restTensor === null ? 0 : restTensor.dataSync()[0];
-    return terms.length === 1 ? terms[0] : (tf.addN(terms as Scalar[]) as Scalar);
+    return (terms.length === 1 ? terms[0] : tf.addN(terms as Tensor[])) as Scalar;
   };
 
   const once = (theta: Float64Array, gTheta: Float64Array, strict: boolean): number => {
