@@ -10,7 +10,7 @@
  * the posterior summary.
  */
 import { pathToFileURL } from 'node:url';
-import { compileModel, createRandomStream, priors, runChains, supports, tensorLikelihood } from '@apsis/core';
+import { compileModel, createRandomStream, drawsByName, priors, runChains, supports, tensorLikelihood } from '@apsis/core';
 
 /** The line and scatter the data are simulated from. */
 export const truth = { intercept: 2.5, slope: 0.8, scale: 0.5 } as const;
@@ -78,8 +78,8 @@ export async function main(options: RobustRegressionOptions = {}): Promise<Colum
   const result = await runChains(model, { chains, warmup, draws, seed });
   model.dispose();
 
-  const { names, values } = result.outputs!;
-  const summary = names.map((name, k) => summarise(name, values.map((chain) => column(chain, names.length, k))));
+  // One array of chains per output column: intercept, slope, scale, lineAt10.
+  const summary = Object.entries(drawsByName(result)).map(([name, chains]) => summarise(name, chains));
   if (!quiet) {
     const known: Record<string, number> = { ...truth, lineAt10: truth.intercept + 10 * truth.slope };
     console.log('quantity      truth     mean    99% interval');
@@ -90,13 +90,6 @@ export async function main(options: RobustRegressionOptions = {}): Promise<Colum
     }
   }
   return summary;
-}
-
-/** Column k of a draws × width row-major block. */
-function column(block: Float64Array, width: number, k: number): Float64Array {
-  const out = new Float64Array(block.length / width);
-  for (let i = 0; i < out.length; i++) out[i] = block[i * width + k];
-  return out;
 }
 
 /** Mean and central 99% interval of the pooled chains (quantiles by linear interpolation). */

@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { createRandomStream } from '../src/random/index.js';
 import {
   compileModel,
+  drawsByName,
   float64Likelihood,
   ModelDataError,
   ModelDeclarationError,
@@ -144,6 +145,17 @@ describe('prior-only models integrate to one over the unconstrained space', () =
     const g = new Float64Array(2);
     const total = integrate2d((a, b) => Math.exp(model.logDensityGrad(Float64Array.of(a, b), g)), -6, 6);
     expect(Math.abs(total - 1)).toBeLessThan(1e-5);
+  });
+});
+
+describe('drawsByName', () => {
+  it('splits draws × columns blocks into chains per column', () => {
+    const result = { outputs: { names: ['a', 'b[0]'], values: [Float64Array.of(1, 2, 3, 4), Float64Array.of(5, 6, 7, 8)] } };
+    const named = drawsByName(result);
+    expect(Object.keys(named)).toEqual(['a', 'b[0]']);
+    expect(named.a.map((c) => Array.from(c))).toEqual([[1, 3], [5, 7]]);
+    expect(named['b[0]'].map((c) => Array.from(c))).toEqual([[2, 4], [6, 8]]);
+    expect(() => drawsByName({})).toThrow(/result\.outputs = undefined: expected recorded outputs/);
   });
 });
 

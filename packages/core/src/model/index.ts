@@ -47,3 +47,4 @@ export {
 } from '../tensorflow/index.js';
 export { findMode, type ModeSearchOptions, type ModeSearchReason, type ModeSearchResult } from './mode/findMode.js';
 export { handWrittenTarget, checkTargetGradient, type GradientCheck, type HandWrittenTargetSpec } from './handWrittenTarget.js';
+export { drawsByName, type RecordedOutputs } from './drawsByName.js';
