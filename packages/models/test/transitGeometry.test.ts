@@ -10,6 +10,7 @@ import {
 import { transitDurations } from '../src/transit/durations.js';
 import { AU_M, GRAVITATIONAL_CONSTANT, SOLAR_GM, SOLAR_RADIUS_M } from '../src/orbit/constants.js';
 import { TransitParameterError } from '../src/transit/errors.js';
+import { createLightCurveKernel } from '../src/transit/lightCurve.js';
 
 /**
  * Independent reference: Winn (2010) eqs. 2-4 evaluated literally, with Kepler's
@@ -120,6 +121,11 @@ describe('sky-projected separation', () => {
     expect(opp.z).toBeLessThan(1);
     expect(opp.inFront).toBe(false);
     expect(skySeparation(0, orbit).inFront).toBe(true);
+    // The light curve is flat there and dips at the transit.
+    const kernel = createLightCurveKernel({ times: Float64Array.from([tOpp - 0.01, tOpp, tOpp + 0.01, 0]), planets: 1, angle: 'inclination' });
+    const flux = kernel.flux(Float64Array.from([9, 0, 0.4, 0.7, 12, Math.PI / 2 - 0.01, 0.1, 0.4, 0.2]));
+    expect(Array.from(flux.subarray(0, 3))).toEqual([1, 1, 1]);
+    expect(flux[3]).toBeLessThan(0.99);
   });
 
   it('partials agree with float64 central differences (circular and eccentric, b or i)', () => {

@@ -45,13 +45,9 @@ export const SEP_Z = 0;
 export const SEP_SIZE = 7;
 
 const kepler = new Float64Array(3);
-// Intermediates of the last separationInto call, read by separationPartialsInto.
-let lastDt = 0;
-let lastSinE = 0;
-let lastCosE = 0;
-let lastC = 0;
-let lastS = 0;
-let lastZ = 0;
+// Intermediates of the last separationInto call, read by separationPartialsInto:
+// [t - tc, sin E, cos E, C, S, z] (a typed array: module-level numbers would be boxed).
+const last = new Float64Array(6);
 
 /** Largest |E - E_c| for the series below (truncation under 1e-18 there). */
 const SERIES_LIMIT = 0.7;
@@ -80,7 +76,8 @@ const C8 = 1 / 240;
  * f(δ) = δ - e (sin E - sin E_c) - dM, with f' = 1 - e cos E and f'' = e sin E.
  * sin δ and cos δ - 1 come from their Taylor series to δ^17 and δ^16 at the first
  * iterate; later, small steps h rotate (sin E, cos E) by angle addition with the
- * series of sin h, cos h to h^7, h^8 (truncation below 1e-21 for |h| < 0.02).
+ * series of sin h, cos h to h^7, h^8 (truncation below 1e-21 for |h| < 0.02). For
+ * |δ| < 1/4 at the start, shorter series (to δ^11, δ^12) are used.
  * Returns false (writing nothing) when |δ| would leave the series' range or the
  * iteration does not settle.
  */
@@ -93,16 +90,23 @@ function keplerNearConjunction(dM: number, e: number, sEc: number, cEc: number, 
   for (let iter = 0; iter < 8; iter++) {
     if (fresh) {
       const d2 = d * d;
-      const sd = d * (1 - d2 * S1 * (1 - d2 * S2 * (1 - d2 * S3 * (1 - d2 * S4 * (1 - d2 * S5 * (1 - d2 * S6 * (1 - d2 * S7 * (1 - d2 * S8))))))));
-      const cm1 = -0.5 * d2 * (1 - d2 * C2 * (1 - d2 * C3 * (1 - d2 * C4 * (1 - d2 * C5 * (1 - d2 * C6 * (1 - d2 * C7 * (1 - d2 * C8)))))));
+      let sd: number;
+      let cm1: number;
+      if (iter === 0 && d2 < 0.0625) {
+        // |δ| < 1/4: series to δ^11 and δ^12 suffice (truncation below 3e-18).
+        sd = d * (1 - d2 * S1 * (1 - d2 * S2 * (1 - d2 * S3 * (1 - d2 * S4 * (1 - d2 * S5)))));
+        cm1 = -0.5 * d2 * (1 - d2 * C2 * (1 - d2 * C3 * (1 - d2 * C4 * (1 - d2 * C5 * (1 - d2 * C6)))));
+      } else {
+        sd = d * (1 - d2 * S1 * (1 - d2 * S2 * (1 - d2 * S3 * (1 - d2 * S4 * (1 - d2 * S5 * (1 - d2 * S6 * (1 - d2 * S7 * (1 - d2 * S8))))))));
+        cm1 = -0.5 * d2 * (1 - d2 * C2 * (1 - d2 * C3 * (1 - d2 * C4 * (1 - d2 * C5 * (1 - d2 * C6 * (1 - d2 * C7 * (1 - d2 * C8)))))));
+      }
       sinE = sEc + (sEc * cm1 + cEc * sd);
       cosE = cEc + (cEc * cm1 - sEc * sd);
       fresh = false;
     }
-    const f = d - e * (sinE - sEc) - dM;
-    const f1 = 1 - e * cosE;
-    const newton = f / f1;
-    const h = newton / (1 - (0.5 * newton * e * sinE) / f1);
+    const inv = 1 / (1 - e * cosE);
+    const newton = (d - e * (sinE - sEc) - dM) * inv;
+    const h = newton / (1 - 0.5 * newton * e * sinE * inv);
     d -= h;
     if (!(Math.abs(d) < SERIES_LIMIT)) return false;
     if (Math.abs(h) < 0.02) {
@@ -112,8 +116,9 @@ function keplerNearConjunction(dM: number, e: number, sEc: number, cEc: number, 
       const s = sinE * ch - cosE * sh;
       cosE = cosE * ch + sinE * sh;
       sinE = s;
-      // Halley's cubic convergence: a step this small leaves an error below 1e-25.
-      if (Math.abs(h) < 1e-9) {
+      // Halley's cubic convergence leaves an error of order e h³/(1 - e)² after a
+      // step h, below 1e-18 rad once |h| < 1e-6 (1 - e).
+      if (Math.abs(h) < 1e-6 * (1 - e)) {
         out[1] = sinE;
         out[2] = cosE;
         return true;
@@ -152,12 +157,12 @@ export function separationInto(t: number, d: Float64Array, o: number, out: Float
   const C = x * cw - y * sw;
   const S = x * sw + y * cw;
   const z = Math.sqrt(C * C + S * S * ci * ci);
-  lastDt = dt;
-  lastSinE = sE;
-  lastCosE = cE;
-  lastC = C;
-  lastS = S;
-  lastZ = z;
+  last[0] = dt;
+  last[1] = sE;
+  last[2] = cE;
+  last[3] = C;
+  last[4] = S;
+  last[5] = z;
   out[at] = z;
   return S > 0;
 }
@@ -169,7 +174,7 @@ export function separationInto(t: number, d: Float64Array, o: number, out: Float
  * there, but every smooth function of z², such as the flux, has a zero derivative).
  */
 export function separationPartialsInto(d: Float64Array, o: number, out: Float64Array, at: number): void {
-  const z = lastZ;
+  const z = last[5];
   if (z === 0) {
     for (let i = 0; i < 6; i++) out[at + i] = 0;
     return;
@@ -181,10 +186,10 @@ export function separationPartialsInto(d: Float64Array, o: number, out: Float64A
   const cw = d[o + TD_CW];
   const ci = d[o + TD_COS_I];
   const n = d[o + TD_N];
-  const sE = lastSinE;
-  const cE = lastCosE;
-  const C = lastC;
-  const S = lastS;
+  const sE = last[1];
+  const cE = last[2];
+  const C = last[3];
+  const S = last[4];
   const ci2 = ci * ci;
   const invZ = 1 / z;
   const iD = 1 / (1 - e * cE);
@@ -194,7 +199,7 @@ export function separationPartialsInto(d: Float64Array, o: number, out: Float64A
   const CE = xE * cw - yE * sw;
   const SE = xE * sw + yE * cw;
   const zM = (C * CE + S * ci2 * SE) * invZ * iD; // ∂z/∂M
-  out[at] = zM * ((-n * lastDt) / d[o + TD_PERIOD]);
+  out[at] = zM * ((-n * last[0]) / d[o + TD_PERIOD]);
   out[at + 1] = -zM * n;
   // Eccentricity: through E (at fixed M and via M_c), x, y directly, and cos i.
   const dEde = iD * (sE + d[o + TD_MC_DE]);
