@@ -6,7 +6,7 @@ import { splitEssPair, wholeChainEss } from './seriesEss.js';
 import type { ChainsInput } from './validateChains.js';
 
 /**
- * Effective sample sizes (Vehtari et al. 2021, Bayesian Analysis 16, 667, sec. 3.2 and 4):
+ * Effective sample sizes (Vehtari et al. 2021, Bayesian Analysis 16, 667):
  * all on split chains, autocorrelations by FFT, Geyer's (1992) initial monotone sequence.
  * Units: number of draws. NaN when every draw is identical.
  */

@@ -1,6 +1,6 @@
 /**
  * Effective sample size from per-chain autocovariances, combined across chains as in
- * Vehtari, Gelman, Simpson, Carpenter & Bürkner (2021, Bayesian Analysis 16, 667, sec. 3.2),
+ * Vehtari, Gelman, Simpson, Carpenter & Bürkner (2021, Bayesian Analysis 16, 667),
  * with Geyer's (1992, Statistical Science 7, 473) initial monotone sequence.
  *
  * With M chains of N draws, chain variances s_m^2 (divisor N-1), W = mean s_m^2,
@@ -34,7 +34,7 @@ export interface ChainMoments {
   readonly acov: readonly ArrayLike<number>[];
 }
 
-/** Within-chain variance W, and var+ (Vehtari et al. 2021, eqs. 3–4). */
+/** Within-chain variance W, and var+ (Vehtari et al. 2021). */
 export function varianceComponents(chains: number, draws: number, means: ArrayLike<number>, chainVariances: ArrayLike<number>): { within: number; plus: number } {
   let w = 0;
   let grand = 0;

@@ -63,7 +63,7 @@ export interface QuantileMcse {
 }
 
 /**
- * MCSE of the quantile at probability p (Vehtari et al. 2021, sec. 4.3): with S_eff the ESS
+ * MCSE of the quantile at probability p (the quantile MCSE of Vehtari et al. 2021): with S_eff the ESS
  * of I(x ≤ q_p), take the Phi(-1) and Phi(1) quantiles a < b of
  * Beta(S_eff p + 1, S_eff (1 - p) + 1); the MCSE is half the distance between the draw
  * quantiles at a and b. Needs no moments, so it works for heavy tails.

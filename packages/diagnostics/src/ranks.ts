@@ -1,7 +1,7 @@
 import { normalQuantile } from './normalQuantile.js';
 
 /**
- * Ranks and rank normalisation (Vehtari et al. 2021, Bayesian Analysis 16, 667, sec. 4.1):
+ * Ranks and rank normalisation (Vehtari et al. 2021, Bayesian Analysis 16, 667):
  * pool all draws, replace each by its average rank r (ties share the mean of their ranks),
  * then by the normal score z = Phi^{-1}((r - 3/8) / (S + 1/4)) (Blom 1958), S = number of
  * pooled draws. Ranks are found by binary search in one sorted copy, so a quantity is sorted

@@ -5,7 +5,7 @@ import { splitHalves } from './splitChains.js';
 import type { ChainsInput } from './validateChains.js';
 
 /**
- * Rank-normalised split R-hat (Vehtari et al. 2021, Bayesian Analysis 16, 667, sec. 4):
+ * Rank-normalised split R-hat (Vehtari et al. 2021, Bayesian Analysis 16, 667):
  * the larger of the bulk R-hat (split R-hat of the rank-normalised draws) and the folded
  * R-hat (the same of the rank-normalised |x - median|). Dimensionless; 1 when the chains
  * agree. Chains of unequal length are truncated to the shortest.

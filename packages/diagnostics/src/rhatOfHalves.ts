@@ -2,7 +2,7 @@ import { varianceComponents } from './geyer.js';
 
 /**
  * Potential scale reduction of a set of (split) chains, Gelman & Rubin (1992, Statistical
- * Science 7, 457) in the form of Vehtari et al. (2021, eqs. 3–4):
+ * Science 7, 457) in the form of Vehtari et al. (2021):
  * R-hat = sqrt(var+ / W), var+ = (n-1)/n W + B/n.
  * Returns NaN when every draw is the same (undefined), +Infinity when each half is constant
  * but the halves differ (the chains are stuck at different values).

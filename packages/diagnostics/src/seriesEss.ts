@@ -83,15 +83,17 @@ function directLags(c: Float64Array, from: number, to: number, out: Float64Array
 
 /**
  * True when the combined autocorrelation at the last computed lag t decays so slowly that,
- * extrapolated as rho_t^(k/t), it would still exceed 0.05 at lag DIRECT_LAG_LIMIT: then the
- * FFT is cheaper than more direct passes.
+ * extrapolated as rho_t^(k/t), it would still exceed the noise level 2/sqrt(S) of the
+ * estimates at lag DIRECT_LAG_LIMIT (so Geyer's sequence would not have ended there): then
+ * the FFT is cheaper than more direct passes.
  */
 function slowDecay(p: SeriesProgress, computed: number): boolean {
   const t = computed - 1;
   if (p.geyer.done || t < 1) return false;
   const rho = correlationAt(p.combined, p.acov, t);
   if (!(rho > 0)) return false;
-  return Math.log(rho) * (DIRECT_LAG_LIMIT / t) > Math.log(0.05);
+  const noise = 2 / Math.sqrt(p.combined.chains * p.combined.draws);
+  return Math.log(rho) * (DIRECT_LAG_LIMIT / t) > Math.log(noise);
 }
 
 interface SeriesProgress {

@@ -1,5 +1,5 @@
 /**
- * Split chains (Vehtari et al. 2021, sec. 4.1; Gelman et al., Bayesian Data Analysis, 3rd
+ * Split chains (Vehtari et al. 2021; Gelman et al., Bayesian Data Analysis, 3rd
  * ed., sec. 11.4): each chain of N draws becomes two halves of floor(N/2) draws; for odd N
  * the middle draw is left out. Halves are views (no copies) into a pooled, chain-major
  * buffer holding M chains of N draws each.

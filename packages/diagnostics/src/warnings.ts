@@ -8,9 +8,9 @@ import type { DiagnosticWarning } from './warningTypes.js';
  * Plain-language warnings with advice, from a summary and (optionally) sampler health.
  *
  * Default thresholds and their sources:
- * - R-hat above 1.01: Vehtari et al. (2021, Bayesian Analysis 16, 667, sec. 4.3).
+ * - R-hat above 1.01: Vehtari et al. (2021, Bayesian Analysis 16, 667), their recommendation.
  * - bulk- or tail-ESS below 100 per chain (400 for four chains): Vehtari et al. (2021).
- * - any divergent transition: Betancourt (2017, arXiv:1701.02434, sec. 6.2); common practice.
+ * - any divergent transition: Betancourt (2017, arXiv:1701.02434), on divergences; common practice.
  * - E-BFMI below 0.3: Betancourt (2016, arXiv:1604.00695); the 0.3 cut is common practice.
  * - any draw at the maximum tree depth: common practice; an efficiency matter, so a caution.
  */

@@ -3,8 +3,8 @@ import { bulkEss, essOfMean, normalQuantile, splitRhatBulk, splitRhatFolded, tai
 import { ar1Chain, cauchyDraws, chainsOf, createRandom } from './support/random.js';
 
 /**
- * Heavy tails, after the Cauchy example of Vehtari et al. (2021, Bayesian Analysis 16, 667,
- * sec. 5; from memory): rank-normalised bulk- and tail-ESS stay well defined because they use
+ * Heavy tails, after the Cauchy example of Vehtari et al. (2021, Bayesian Analysis 16, 667;
+ * from memory): rank-normalised bulk- and tail-ESS stay well defined because they use
  * only ranks, while the classic ESS of the mean — of a distribution with no mean — is
  * unreliable; the folded R-hat detects chains that differ in scale.
  */

@@ -38,7 +38,7 @@ describe('MCSE against the spread over independent replications', () => {
   });
 
   for (const p of [0.5, 0.05]) {
-    it(`MCSE of the ${100 * p}% quantile (beta/ESS method, Vehtari et al. 2021 sec. 4.3) matches the sd of the quantiles (within 20%)`, () => {
+    it(`MCSE of the ${100 * p}% quantile (beta/ESS method, Vehtari et al. 2021) matches the sd of the quantiles (within 20%)`, () => {
       const estimates = reps.map((chains) => quantileOfSorted(sortedCopy(pooledOf(chains)), p));
       const ratio = rms(reps.map((c) => mcseOfQuantile(c, p))) / meanAndSd(estimates).sd;
       expect(Math.abs(ratio - 1)).toBeLessThan(0.2);

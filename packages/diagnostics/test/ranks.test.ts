@@ -11,7 +11,7 @@ describe('ranks', () => {
     expect(Array.from(averageRanks([2, 2, 2]))).toEqual([2, 2, 2]);
   });
 
-  it('rank normalisation is z = Phi^{-1}((r - 3/8)/(S + 1/4)) (Blom 1958; Vehtari et al. 2021, eq. 14)', () => {
+  it('rank normalisation is z = Phi^{-1}((r - 3/8)/(S + 1/4)) (Blom 1958; Vehtari et al. 2021)', () => {
     const values = [0.3, -2, 7, 0.3, 1];
     const ranks = averageRanks(values);
     const out = rankNormalize(values, sortedCopy(values), normalScoreTable(5), new Float64Array(5));

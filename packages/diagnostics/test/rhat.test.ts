@@ -15,7 +15,7 @@ describe('split R-hat', () => {
     expect(splitRhatBasic([[1, 2, 3, 4, 100, 5, 6, 7, 8], [2, 4, 6, 8, -50, 1, 3, 5, 7]])).toBeCloseTo(Math.sqrt(1.43), 14);
   });
 
-  it('is near 1 for independent draws: below 1.005 for 4 x 2000 (Vehtari et al. 2021, sec. 4)', () => {
+  it('is near 1 for independent draws: below 1.005 for 4 x 2000 (Vehtari et al. 2021)', () => {
     // For independent draws R-hat - 1 is of order 1/N (here ~1e-4); 1.005 is far outside its spread.
     for (const seed of [1, 2, 3, 4, 5]) {
       const rng = createRandom(seed);
@@ -34,7 +34,7 @@ describe('split R-hat', () => {
     expect(splitRhatBulk(chains)).toBeGreaterThan(1.05);
   });
 
-  it('one chain scaled by 3: the bulk R-hat misses it, the folded R-hat catches it (Vehtari et al. 2021, sec. 4.2)', () => {
+  it('one chain scaled by 3: the bulk R-hat misses it, the folded R-hat catches it (Vehtari et al. 2021, folded R-hat)', () => {
     const rng = createRandom(7);
     const chains = chainsOf(4, (c) => normalDraws(rng, 2000).map((v) => (c === 0 ? 3 * v : v)));
     expect(splitRhatBulk(chains)).toBeLessThan(1.01);
