@@ -99,15 +99,16 @@ function rowOf(name: string, d: QuantityDiagnostics, levels: number[]): Quantity
   };
 }
 
-function truncationNotice(name: string, lengths: number[], used: number): DiagnosticWarning {
+function truncationNotice(names: readonly string[], all: boolean, lengths: number[], used: number): DiagnosticWarning {
+  const which = all ? (names.length === 1 ? `'${names[0]}'` : 'every quantity') : names.map((n) => `'${n}'`).join(', ');
   return {
     code: 'chains-truncated',
     severity: 'caution',
-    quantity: name,
+    quantity: names.length === 1 ? names[0] : null,
     chain: null,
     value: used,
     threshold: null,
-    message: `The chains of '${name}' have different lengths (${lengths.join(', ')}); every chain was cut to the shortest, ${used} draws.`,
+    message: `The chains of ${which} have different lengths (${lengths.join(', ')}); every chain was cut to the shortest, ${used} draws.`,
     advice: 'Check why some chains stopped early (a crash, a time limit, a worker lost); rerun or discard the short chains so that no draws are wasted.',
   };
 }
@@ -167,7 +168,7 @@ function summarizeEach(names: readonly string[], chainsOf: (index: number) => un
   if (names.length === 0) throw new ChainShapeError('quantities', 'quantities: expected at least one quantity, got none');
   const cache = new WorkspaceCache();
   const rows: QuantitySummary[] = [];
-  const notices: DiagnosticWarning[] = [];
+  const truncated = new Map<string, { names: string[]; lengths: number[]; used: number }>();
   let chains = 0;
   let drawsPerChain = 0;
   for (let j = 0; j < names.length; j++) {
@@ -179,10 +180,17 @@ function summarizeEach(names: readonly string[], chainsOf: (index: number) => un
       chains = prepared.count;
       drawsPerChain = prepared.draws;
     }
-    if (prepared.truncated) notices.push(truncationNotice(name, prepared.givenLengths, prepared.draws));
+    if (prepared.truncated) {
+      // one notice per distinct set of chain lengths, however many quantities share it
+      const key = prepared.givenLengths.join(',');
+      const entry = truncated.get(key) ?? { names: [], lengths: prepared.givenLengths, used: prepared.draws };
+      entry.names.push(name);
+      truncated.set(key, entry);
+    }
     const ws = cache.get(prepared.count, prepared.draws);
     rows.push(rowOf(name, diagnoseQuantity(ws, prepared.chains, levels), levels));
   }
+  const notices = [...truncated.values()].map((t) => truncationNotice(t.names, t.names.length === names.length, t.lengths, t.used));
   return { chains, drawsPerChain, quantileLevels: levels, rows, notices };
 }
 

@@ -126,4 +126,13 @@ describe('summary table', () => {
     expect(table.rows[0].rhat).toBe(splitRhat(uneven.map((c) => c.subarray(0, 900))));
     expect(formatSummaryText(table)).toMatch(/different lengths \(1000, 900, 1000\)/);
   });
+
+  it('a trace whose chains differ in length gives one notice for all its quantities', () => {
+    const matrices = [new Float64Array(3 * 40).map(() => rng.normal()), new Float64Array(3 * 30).map(() => rng.normal())];
+    const table = summarizeDraws(matrices, { dim: 3 });
+    expect(table.drawsPerChain).toBe(30);
+    expect(table.notices).toHaveLength(1);
+    expect(table.notices[0]).toMatchObject({ code: 'chains-truncated', quantity: null, value: 30 });
+    expect(table.notices[0].message).toMatch(/^The chains of every quantity have different lengths \(40, 30\)/);
+  });
 });
