@@ -1,0 +1,83 @@
+/**
+ * Runner benchmarks, printed as ratios measured in one run.
+ *
+ * 1. Speed-up of 2 worker threads over the calling thread, 4 chains, for a fused float64
+ *    JS target and for the same model with a TensorFlow.js likelihood (modelling layer,
+ *    default backend). "end to end" includes starting the workers and building the
+ *    targets (and, for the serial TensorFlow.js run, importing TensorFlow.js once);
+ *    "sampling" subtracts the start-up, measured by a run with no iterations.
+ * 2. Overhead of streaming traces to a run folder and checkpointing, as a fraction of
+ *    the run time without a folder (fused target, calling thread, best of 2).
+ *
+ * Times are wall-clock seconds: worker threads only pay off in wall time.
+ *
+ * Run: npx tsx --conditions=source bench/runner-parallel.ts [--quick]
+ */
+import { mkdtempSync, rmSync } from 'node:fs';
+import { loadavg, tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { executeRun, type ExecuteRunOptions, type TargetRecipe } from '@apsis/core';
+import { sinusoidInit } from './runner-targets.js';
+
+const quick = process.argv.includes('--quick');
+const module = fileURLToPath(new URL('./runner-targets.ts', import.meta.url));
+const root = mkdtempSync(join(tmpdir(), 'apsis-bench-runner-'));
+
+async function seconds(run: () => Promise<unknown>): Promise<{ s: number; value: unknown }> {
+  const t0 = performance.now();
+  const value = await run();
+  return { s: (performance.now() - t0) / 1000, value };
+}
+
+const same = (a: { draws: Float64Array[] }, b: { draws: Float64Array[] }): boolean =>
+  a.draws.length === b.draws.length && a.draws.every((d, c) => d.length === b.draws[c].length && d.every((x, i) => Object.is(x, b.draws[c][i])));
+
+async function speedUp(label: string, recipe: TargetRecipe, options: ExecuteRunOptions): Promise<void> {
+  const base = { ...options, chains: 4, seed: 11, init: sinusoidInit(4), progress: false };
+  // Serial first: in a fresh process, this pays any one-off import (TensorFlow.js) in this thread.
+  const serialStart = await seconds(() => executeRun(recipe, { ...base, warmup: 0, draws: 0, threads: 0 }));
+  const serial = await seconds(() => executeRun(recipe, { ...base, threads: 0 }));
+  const parallelStart = await seconds(() => executeRun(recipe, { ...base, warmup: 0, draws: 0, threads: 2 }));
+  const parallel = await seconds(() => executeRun(recipe, { ...base, threads: 2 }));
+  const identical = same(serial.value as { draws: Float64Array[] }, parallel.value as { draws: Float64Array[] });
+  const endToEnd = (serialStart.s + serial.s) / parallel.s;
+  const sampling = serial.s / (parallel.s - parallelStart.s);
+  console.log(
+    `${label}: serial ${serial.s.toFixed(2)} s (+${serialStart.s.toFixed(2)} s start-up), 2 workers ${parallel.s.toFixed(2)} s (of which start-up ${parallelStart.s.toFixed(2)} s)`,
+  );
+  console.log(`  speed-up, end to end ${endToEnd.toFixed(2)}x, sampling ${sampling.toFixed(2)}x; draws identical: ${identical ? 'yes' : 'NO'}`);
+}
+
+async function overhead(): Promise<void> {
+  const recipe = { module, exportName: 'fusedSinusoid', args: { n: 1000 } };
+  const base = { chains: 2, warmup: quick ? 500 : 1000, draws: quick ? 500 : 2000, seed: 5, init: sinusoidInit(2), progress: false, threads: 0 };
+  let n = 0;
+  const folder = () => join(root, `run-${n++}`);
+  const variants: (() => ExecuteRunOptions)[] = [
+    () => ({}),
+    () => ({ folder: folder(), checkpointEvery: 0 }),
+    () => ({ folder: folder(), checkpointEvery: 500 }),
+    () => ({ folder: folder(), checkpointEvery: 50 }),
+  ];
+  // Interleaved repeats, best of 3 each, so a burst of load elsewhere hits all variants alike.
+  const best = variants.map(() => Infinity);
+  for (let k = 0; k < 3; k++) {
+    for (const [i, v] of variants.entries()) best[i] = Math.min(best[i], (await seconds(() => executeRun(recipe, { ...base, ...v() }))).s);
+  }
+  const [plain, streamed, every500, every50] = best;
+  const frac = (t: number) => `${(((t - plain) / plain) * 100).toFixed(1)}%`;
+  console.log(`streaming and checkpoints (fused target, ${base.chains} chains x ${base.warmup + base.draws} iterations, ${plain.toFixed(2)} s without a folder):`);
+  const total = base.warmup + base.draws;
+  const perCheckpoint = ((every50 - streamed) / Math.floor(total / 50)) * 1000;
+  console.log(`  traces only ${frac(streamed)}, + checkpoint every 500 iterations ${frac(every500)}, + every 50 ${frac(every50)}`);
+  console.log(`  about ${perCheckpoint.toFixed(2)} ms per checkpoint (${base.chains} chains; from the every-50 run)`);
+}
+
+const load = () => loadavg().map((x) => x.toFixed(2)).join(', ');
+console.log(`load average before: ${load()} (2 cores; figures are only clean when nothing else runs)`);
+await speedUp('fused JS (n = 2000)', { module, exportName: 'fusedSinusoid', args: { n: 2000 } }, { warmup: quick ? 400 : 1000, draws: quick ? 400 : 1000 });
+await speedUp('TensorFlow.js likelihood (n = 1000)', { module, exportName: 'tensorSinusoid', args: { n: 1000 } }, { warmup: quick ? 100 : 200, draws: quick ? 100 : 200 });
+await overhead();
+console.log(`load average after: ${load()}`);
+rmSync(root, { recursive: true, force: true });
