@@ -123,6 +123,18 @@ describe('quadraticTransitFlux limits', () => {
     expect(Math.abs(depthPpm - 84)).toBeLessThan(0.5);
   });
 
+  it('stays accurate for k = 1 at vanishing offsets, where 1 - (z - k)² and (z + k)² - 1 are tiny', () => {
+    // The flux grows linearly from 0 at z = 0 (full coverage); compare with the annulus
+    // integration and with the slope measured at z = 1e-6.
+    const slope = quadraticTransitFlux(1e-6, 1, 0.4, 0.25) / 1e-6;
+    for (const z of [1e-300, 1e-20, 1e-12, 1e-8]) {
+      const f = quadraticTransitFlux(z, 1, 0.4, 0.25);
+      expect(Math.abs(f - fluxByAnnuli(z, 1, 0.4, 0.25, 300)), `z=${z}`).toBeLessThan(1e-15);
+      // Absolute precision of a flux near 0 is the rounding of 1 - (blocked light)/F0.
+      expect(Math.abs(f - slope * z), `z=${z}`).toBeLessThan(1e-6 * z + 2e-16);
+    }
+  });
+
   it('is 1 without overlap and 0 when a larger planet covers the star', () => {
     expect(quadraticTransitFlux(1.2, 0.1, 0.4, 0.2)).toBe(1);
     expect(quadraticTransitFlux(1.1, 0.1, 0.4, 0.2)).toBe(1);

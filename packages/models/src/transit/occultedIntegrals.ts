@@ -90,14 +90,21 @@ export function occultedIntegralsInto(
     if (withPartials) for (let i = 3; i < OCC_SIZE; i++) out[at + i] = 0;
     return;
   }
-  const z2 = z * z;
+  const inside = k < 1 && z <= 1 - k;
+  // Crossing the limb with z < 1e-100 happens only for k = 1; z is raised to 1e-100
+  // there (the flux and partials then differ from their limits by O(1e-100)) to keep
+  // z² and the triangle area below in range.
+  if (!inside && z < 1e-100) z = 1e-100;
   const d = z - k;
   const s = z + k;
-  const a = (1 - d) * (1 + d);
+  // 1 - d², 1 - s² and s² - 1 from factors grouped so that near the contacts
+  // (z ≈ 1 + k, z ≈ |1 - k|, and z → 0 with k = 1) nothing cancels.
+  const a = (1 + k - z) * (z + (1 - k));
   const ds = d * s;
-  if (k < 1 && z <= 1 - k) {
+  if (inside) {
     // The planet's disk lies inside the stellar disk (internal contact included).
-    let kc2 = ((1 - s) * (1 + s)) / a;
+    const z2 = z * z;
+    let kc2 = ((1 - k - z) * (1 + s)) / a;
     if (kc2 < 0) kc2 = 0;
     const kc = Math.sqrt(kc2);
     celBasisPairInto(kc, 1 / a, basis, 0);
@@ -122,6 +129,7 @@ export function occultedIntegralsInto(
     return;
   }
   // The planet's limb crosses the stellar limb: |1 - k| < z < 1 + k, so z > 0.
+  const z2 = z * z;
   // Kite of the two centres and the two limb intersections; stable Heron formula
   // with the sides sorted (W. Kahan, lecture notes "Miscalculating area and angles of
   // a needle-like triangle"); its area is twice that of the triangle (1, k, z).
@@ -150,7 +158,7 @@ export function occultedIntegralsInto(
   const kappa0 = Math.atan2(2 * kite, (k - 1) * (k + 1) + z2);
   const kappa1 = Math.atan2(2 * kite, (1 - k) * (1 + k) + z2);
   const zk = z * k;
-  const s2m1 = (s - 1) * (s + 1);
+  const s2m1 = (z + (k - 1)) * (s + 1);
   let kc2 = s2m1 / (4 * zk);
   if (kc2 < 0) kc2 = 0;
   const kc = Math.sqrt(kc2);
