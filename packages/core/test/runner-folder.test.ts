@@ -127,6 +127,16 @@ describe('run folder', () => {
     }
   });
 
+  it('a run that cannot start (aborted, or a target that cannot be built) leaves no folder behind', async () => {
+    const folder = fresh();
+    const controller = new AbortController();
+    controller.abort(new Error('not today'));
+    await expect(executeRun(gaussian(null), { ...options, folder, signal: controller.signal })).rejects.toThrow('not today');
+    const module = fileURLToPath(new URL('./fixtures/targets.ts', import.meta.url));
+    await expect(executeRun({ module, exportName: 'broken' }, { ...options, folder, threads: 0 })).rejects.toThrow(/refuses to build/);
+    expect(existsSync(folder)).toBe(false);
+  });
+
   it('refuses to start a run in a folder that is not empty', async () => {
     const { folder } = await makeRun();
     await expect(executeRun(gaussian(null), { ...options, folder })).rejects.toThrow(/not empty.*already holds a run: resume it/);

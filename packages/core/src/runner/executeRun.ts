@@ -6,7 +6,7 @@ import type { ChainExecutor } from './chainExecutor.js';
 import { createChainTrace } from './chainTrace.js';
 import { RunOptionsError, TargetRecipeError } from './errors.js';
 import { createInThreadExecutor } from './inThreadExecutor.js';
-import { checkpointSlots, newRunId, openWriters, prepareNewFolder, softwareVersions, traceFileName, writeManifest } from './runFolder.js';
+import { checkNewFolder, checkpointSlots, createFolderLayout, newRunId, openWriters, softwareVersions, traceFileName, writeManifest } from './runFolder.js';
 import { runFolderFormat, runFolderVersion, samplerKnobs, type RunManifest } from './runManifest.js';
 import { defaultThreads, resolveExecuteOptions, type ExecuteRunOptions } from './runnerOptions.js';
 import { driveSession, type FolderSink, type LongRunResult } from './runSession.js';
@@ -95,7 +95,8 @@ export async function executeRun(target: Target | TargetRecipe, options: Execute
   const init = o.init?.map((x) => Array.from(x));
   const starts: ChainStart[] = Array.from({ length: o.chains }, (_, chain) => ({ chain, seed, ...(init ? { init: init[chain] } : {}) }));
   const folderPath = runner.folder === null ? null : resolve(runner.folder);
-  if (folderPath !== null) prepareNewFolder(folderPath);
+  if (folderPath !== null) checkNewFolder(folderPath);
+  if (o.signal?.aborted) throw o.signal.reason ?? new Error('executeRun: aborted');
 
   const { sink, listen } = deferredSink();
   const executor = await startExecutor(inMemory, recipe, threads, settings, starts, sink);
@@ -104,6 +105,7 @@ export async function executeRun(target: Target | TargetRecipe, options: Execute
   let folder: FolderSink | null = null;
   try {
     if (folderPath !== null) {
+      createFolderLayout(folderPath);
       const manifest: RunManifest = {
         format: runFolderFormat,
         version: runFolderVersion,

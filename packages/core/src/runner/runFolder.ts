@@ -19,22 +19,25 @@ export function newRunId(): string {
 }
 
 /**
- * Makes `folder` ready for a new run: creates it (and its parents) when missing;
- * refuses a file, a symbolic link, or a folder that is not empty (which would mix two
- * runs). Creates the `traces/` and `checkpoints/` sub-folders.
+ * Checks that `folder` can take a new run: missing (it will be created), or an empty
+ * folder. Refuses a file, a symbolic link, or a folder that is not empty (which would
+ * mix two runs). Creates nothing, so a run that fails to start leaves no trace.
  */
-export function prepareNewFolder(folder: string): void {
-  if (existsSync(folder)) {
-    if (lstatSync(folder).isSymbolicLink()) throw new RunFolderError(`run folder ${folder} is a symbolic link: expected a plain folder`);
-    if (!statSync(folder).isDirectory()) throw new RunFolderError(`run folder ${folder} is a file: expected a folder (new or empty)`);
-    const entries = readdirSync(folder);
-    if (entries.length > 0) {
-      const hint = entries.includes(manifestFile) ? ' It already holds a run: resume it, or choose a new folder.' : '';
-      throw new RunFolderError(`run folder ${folder} is not empty (${entries.length} entries): expected a new or empty folder.${hint}`);
-    }
-  } else {
-    mkdirSync(folder, { recursive: true });
+export function checkNewFolder(folder: string): void {
+  if (!existsSync(folder)) return;
+  if (lstatSync(folder).isSymbolicLink()) throw new RunFolderError(`run folder ${folder} is a symbolic link: expected a plain folder`);
+  if (!statSync(folder).isDirectory()) throw new RunFolderError(`run folder ${folder} is a file: expected a folder (new or empty)`);
+  const entries = readdirSync(folder);
+  if (entries.length > 0) {
+    const hint = entries.includes(manifestFile) ? ' It already holds a run: resume it, or choose a new folder.' : '';
+    throw new RunFolderError(`run folder ${folder} is not empty (${entries.length} entries): expected a new or empty folder.${hint}`);
   }
+}
+
+/** Creates the folder (and its parents) and its `traces/` and `checkpoints/` sub-folders. */
+export function createFolderLayout(folder: string): void {
+  checkNewFolder(folder);
+  mkdirSync(folder, { recursive: true });
   mkdirSync(join(folder, 'traces'));
   mkdirSync(join(folder, 'checkpoints'));
 }

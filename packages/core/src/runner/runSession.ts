@@ -183,19 +183,21 @@ export async function driveSession(setup: SessionSetup): Promise<LongRunResult> 
   if (setup.signal?.aborted) onAbort();
 
   const request = (goal: number) => ({ goal, snapshotEvery: checkpointing ? setup.checkpointEvery : 0, snapshotAtGoal: checkpointing });
+  // A stop asked for before an advance starts is honoured here (hosts reset it per advance).
+  const advance = async (goal: number): Promise<ChainStanding[]> => (aborted || failure !== null ? standing : executor.advance(request(goal)));
   let standing: ChainStanding[] = [];
   let stop: RunStop;
   let assessment: ConvergenceAssessment | null = null;
   try {
     if (criteria !== null) quantities = convergenceQuantities(setup);
     if (criteria === null) {
-      standing = await executor.advance(request(total));
+      standing = await advance(total);
       stop = { reason: 'completed', drawsPerChain: settings.draws, message: `drew all ${settings.draws} draws per chain`, failures: [] };
     } else {
       const points = checkPoints(criteria).filter((p) => warmup + p >= setup.startIteration);
       stop = { reason: 'draw-cap', drawsPerChain: criteria.maxDraws, message: '', failures: [] };
       for (const p of points) {
-        standing = await executor.advance(request(warmup + p));
+        standing = await advance(warmup + p);
         if (aborted || failure !== null) break;
         try {
           const named: NamedChains[] = quantities.map((q) => ({
