@@ -3,6 +3,7 @@ import { createLightCurveKernel } from '../src/transit/lightCurve.js';
 import { quadraticTransitFlux } from '../src/transit/quadraticFlux.js';
 import { skySeparation, type TransitOrbit } from '../src/transit/transitGeometry.js';
 import { transitDurations } from '../src/transit/durations.js';
+import { scaledSemiMajorAxisFromDensity } from '../src/transit/orbitConversions.js';
 import { LightCurveDataError, TransitParameterError, TransitWorkspaceError } from '../src/transit/errors.js';
 import { integrateWithEndpointMap } from './support/diskIntegration.js';
 
@@ -154,6 +155,39 @@ describe('light-curve kernel', () => {
       kernel.fluxKeepingJacobian(c.params);
       kernel.vjpFromLast(weights, again);
       for (let j = 0; j < kernel.parameterCount; j++) expect(Math.abs(again[j] - grad[j])).toBeLessThan(1e-12 * Math.max(1, Math.abs(grad[j])));
+    }
+  });
+
+  it('takes the stellar density instead of a/R_*, with the chain rule in P and rho_*', () => {
+    // rho_* = 1800 kg m^-3 and P = 3.2 d give a/R_* ≈ 9.5 (Seager & Mallén-Ornelas 2003).
+    const rho = 1800;
+    const aR = scaledSemiMajorAxisFromDensity(rho, 3.2);
+    const byAxis = vector([3.2, 0.4, 0.1, 0.3, aR, 0.3, 0.1], U);
+    const byDensity = vector([3.2, 0.4, 0.1, 0.3, rho, 0.3, 0.1], U);
+    const times = smoothTimes(byAxis, 1, 'impact', 0, 1, 1);
+    const a = createLightCurveKernel({ times, planets: 1 });
+    const d = createLightCurveKernel({ times, planets: 1, scale: 'stellarDensity' });
+    expect(d.names[4]).toBe('stellarDensity[0]');
+    const fa = Float64Array.from(a.flux(byAxis));
+    const fd = d.flux(byDensity);
+    for (let i = 0; i < times.length; i++) expect(Math.abs(fa[i] - fd[i])).toBeLessThan(1e-14);
+    const weights = Float64Array.from(times, (_, i) => Math.cos(i));
+    const grad = new Float64Array(d.parameterCount);
+    d.vjp(byDensity, weights, grad);
+    const kept = new Float64Array(d.parameterCount);
+    d.fluxKeepingJacobian(byDensity);
+    d.checkParameters(byAxis); // must not disturb the kept Jacobian's chain factors
+    d.vjpFromLast(weights, kept);
+    for (const j of [0, 4]) {
+      const h = 1e-5 * byDensity[j];
+      const f = (x: number) => {
+        const p = Float64Array.from(byDensity);
+        p[j] += x;
+        return d.flux(p).reduce((acc, v, i) => acc + weights[i] * v, 0);
+      };
+      const num = (f(-2 * h) - 8 * f(-h) + 8 * f(h) - f(2 * h)) / (12 * h);
+      expect(Math.abs(grad[j] - num), d.names[j]).toBeLessThan(1e-7 * Math.max(1, Math.abs(num)));
+      expect(Math.abs(kept[j] - grad[j])).toBeLessThan(1e-12 * Math.max(1, Math.abs(grad[j])));
     }
   });
 

@@ -40,6 +40,7 @@ export {
   transitParameterCount,
   transitParameterNames,
   type TransitAngleForm,
+  type TransitScaleForm,
 } from './transitParameters.js';
 export * from './lightCurve.js';
 export * from './lightCurveLikelihood.js';

@@ -22,6 +22,8 @@ import { LightCurveDataError, TransitParameterError, TransitWorkspaceError } fro
 import { quadraticFluxPartialsUnchecked, quadraticFluxUnchecked } from './quadraticFlux.js';
 import { separationInto, separationPartialsInto } from './skySeparation.js';
 import {
+  TD_AR_DP,
+  TD_AR_DSLOT,
   TD_K,
   TD_PERIOD,
   TD_STRIDE,
@@ -34,6 +36,7 @@ import {
   transitParameterCount,
   transitParameterNames,
   type TransitAngleForm,
+  type TransitScaleForm,
 } from './transitParameters.js';
 
 /** Per-point partials stored by {@link LightCurveKernel.fluxKeepingJacobian}. */
@@ -54,6 +57,8 @@ export interface LightCurveOptions {
   planets: number;
   /** How slot 5 of each planet is written. Default 'impact'. */
   angle?: TransitAngleForm;
+  /** How slot 4 of each planet is written (a/R_* or rho_* in kg m^-3). Default 'scaledSemiMajorAxis'. */
+  scale?: TransitScaleForm;
 }
 
 /** A light-curve kernel bound to one set of times (see {@link createLightCurveKernel}). */
@@ -61,6 +66,7 @@ export interface LightCurveKernel {
   readonly times: Float64Array;
   readonly planets: number;
   readonly angle: TransitAngleForm;
+  readonly scale: TransitScaleForm;
   readonly subSamples: number;
   /** Length of the parameter vector: 7 per planet plus u1, u2. */
   readonly parameterCount: number;
@@ -96,6 +102,7 @@ const optionsSchema = z.object({
   subSamples: z.number().int().positive().optional(),
   planets: z.number().int().positive(),
   angle: z.enum(['impact', 'inclination']).optional(),
+  scale: z.enum(['scaledSemiMajorAxis', 'stellarDensity']).optional(),
 });
 
 function fail(field: string, value: unknown, expected: string): never {
@@ -117,6 +124,7 @@ export function createLightCurveKernel(options: LightCurveOptions): LightCurveKe
   }
   const { times, planets } = options;
   const angle: TransitAngleForm = options.angle ?? 'impact';
+  const scale: TransitScaleForm = options.scale ?? 'scaledSemiMajorAxis';
   const N = times.length;
   for (let i = 0; i < N; i++) {
     if (!Number.isFinite(times[i])) throw new LightCurveDataError('times', i, times[i], 'a finite number (days)');
@@ -146,7 +154,7 @@ export function createLightCurveKernel(options: LightCurveOptions): LightCurveKe
 
   const dim = transitParameterCount(planets);
   const uAt = planets * TRANSIT_PLANET_STRIDE;
-  const names = Object.freeze(transitParameterNames(planets, angle));
+  const names = Object.freeze(transitParameterNames(planets, angle, scale));
   const decoded = new Float64Array(planets * TD_STRIDE);
   const flux = new Float64Array(N);
   const jacIndex: Int32Array[] = [];
@@ -156,6 +164,8 @@ export function createLightCurveKernel(options: LightCurveOptions): LightCurveKe
     jacRows.push(new Float64Array(N * ROW));
   }
   const jacCount = new Int32Array(planets);
+  // d(a/R_*)/d(slot 4) and d(a/R_*)/dP of each planet, as of the kept Jacobian.
+  const keptChain = new Float64Array(2 * planets);
   let jacValid = false;
   const sep = new Float64Array(7);
   const fp = new Float64Array(5);
@@ -163,7 +173,7 @@ export function createLightCurveKernel(options: LightCurveOptions): LightCurveKe
 
   function check(params: Float64Array): number {
     if (!(params instanceof Float64Array) || params.length !== dim) return -2;
-    const bad = decodeTransitPlanets(params, planets, angle, decoded);
+    const bad = decodeTransitPlanets(params, planets, angle, decoded, scale);
     if (bad >= 0) return bad;
     const u1 = params[uAt];
     const u2 = params[uAt + 1];
@@ -173,7 +183,10 @@ export function createLightCurveKernel(options: LightCurveOptions): LightCurveKe
 
   function throwBad(params: Float64Array, bad: number): never {
     if (bad === -2) throw new TransitWorkspaceError('params', params, `a Float64Array of length ${dim}`);
-    const what = bad >= uAt ? 'limb-darkening coefficients with 1 - u1/3 - u2/6 > 0' : 'a value inside its support (P > 0, 0 <= e < 1, a/R_* > 1, k > 0, |cos i| < 1)';
+    const what =
+      bad >= uAt
+        ? 'limb-darkening coefficients with 1 - u1/3 - u2/6 > 0'
+        : 'a value inside its support (P > 0, 0 <= e < 1, a/R_* > 1 (or a density giving it), k > 0, |cos i| < 1)';
     throw new TransitParameterError(names[bad], params[bad], what);
   }
 
@@ -285,10 +298,15 @@ export function createLightCurveKernel(options: LightCurveOptions): LightCurveKe
         }
       }
       jacCount[p] = count;
+      keptChain[2 * p] = decoded[o + TD_AR_DSLOT];
+      keptChain[2 * p + 1] = decoded[o + TD_AR_DP];
       if (mode === 1) {
         const g = grad as Float64Array;
         const at = p * TRANSIT_PLANET_STRIDE;
         for (let q = 0; q < 7; q++) g[at + q] = planetGrad[q];
+        // Density form: a/R_* depends on slot 4 and on P.
+        g[at] += planetGrad[4] * decoded[o + TD_AR_DP];
+        g[at + 4] = planetGrad[4] * decoded[o + TD_AR_DSLOT];
         g[uAt] += planetGrad[7];
         g[uAt + 1] += planetGrad[8];
       }
@@ -305,6 +323,7 @@ export function createLightCurveKernel(options: LightCurveOptions): LightCurveKe
     times,
     planets,
     angle,
+    scale,
     subSamples: ns,
     parameterCount: dim,
     names,
@@ -367,11 +386,11 @@ export function createLightCurveKernel(options: LightCurveOptions): LightCurveKe
           g8 += w * rows[r + 8];
         }
         const at = p * TRANSIT_PLANET_STRIDE;
-        grad[at] = g0;
+        grad[at] = g0 + g4 * keptChain[2 * p + 1];
         grad[at + 1] = g1;
         grad[at + 2] = g2;
         grad[at + 3] = g3;
-        grad[at + 4] = g4;
+        grad[at + 4] = g4 * keptChain[2 * p];
         grad[at + 5] = g5;
         grad[at + 6] = g6;
         grad[uAt] += g7;

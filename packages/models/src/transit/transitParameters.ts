@@ -5,16 +5,21 @@
  * Each planet takes `TRANSIT_PLANET_STRIDE` = 7 consecutive slots:
  *   [period P (days), tc (days, time of inferior conjunction relative to the caller's
  *    reference epoch), eccentricity e, argument of periastron omega (radians),
- *    a/R_* (scaled semi-major axis), impact parameter b or inclination i (radians),
- *    radius ratio k = R_p/R_*]
+ *    a/R_* (scaled semi-major axis) or the mean stellar density rho_* (kg m^-3),
+ *    impact parameter b or inclination i (radians), radius ratio k = R_p/R_*]
  * followed, once per light curve, by the quadratic limb-darkening coefficients
  * [u1, u2] (the star's, shared by all its planets). Gradients use the same layout.
+ *
+ * Gradients in slot 4 and slot 0 include the density-to-a/R_* chain rule when the
+ * density form is used.
  *
  * Geometry conventions (Winn 2010, "Transits and Occultations", eqs. 2-4 and 7):
  * X = -r cos(omega + f), Y = -r sin(omega + f) cos i, Z = r sin(omega + f) sin i in
  * stellar radii, r = (a/R_*)(1 - e²)/(1 + e cos f); the planet is in front when Z > 0;
  * conjunction (mid-transit) at f = pi/2 - omega; b = (a/R_*) cos i (1 - e²)/(1 + e sin omega).
  */
+
+import { GRAVITATIONAL_CONSTANT, SECONDS_PER_DAY } from '../orbit/constants.js';
 
 /** Slots per planet in a light-curve parameter vector. */
 export const TRANSIT_PLANET_STRIDE = 7;
@@ -30,20 +35,32 @@ export const TP_RADIUS_RATIO = 6;
 /** How slot 5 of each planet is written: impact parameter b or inclination i (radians). */
 export type TransitAngleForm = 'impact' | 'inclination';
 
+/**
+ * How slot 4 of each planet is written: the scaled semi-major axis a/R_*, or the mean
+ * stellar density rho_* in kg m^-3, from which a/R_* = (G rho_* P²/(3 pi))^{1/3}
+ * (Seager & Mallén-Ornelas 2003, planet mass neglected). With several planets in the
+ * density form, give each the same density (or tie them in the model).
+ */
+export type TransitScaleForm = 'scaledSemiMajorAxis' | 'stellarDensity';
+
 /** Length of a light-curve parameter vector: 7 per planet plus u1, u2. */
 export function transitParameterCount(planets: number): number {
   return planets * TRANSIT_PLANET_STRIDE + 2;
 }
 
 /** Names of all slots, e.g. `period[0]`, ..., `radiusRatio[1]`, `u1`, `u2`. */
-export function transitParameterNames(planets: number, angle: TransitAngleForm): string[] {
+export function transitParameterNames(
+  planets: number,
+  angle: TransitAngleForm,
+  scale: TransitScaleForm = 'scaledSemiMajorAxis',
+): string[] {
   const names: string[] = [];
   const slots = [
     'period',
     'tc',
     'eccentricity',
     'omega',
-    'scaledSemiMajorAxis',
+    scale,
     angle === 'impact' ? 'impactParameter' : 'inclination',
     'radiusRatio',
   ];
@@ -53,7 +70,7 @@ export function transitParameterNames(planets: number, angle: TransitAngleForm):
 }
 
 /** Slots per planet in a decoded block (see {@link decodeTransitPlanets}). */
-export const TD_STRIDE = 22;
+export const TD_STRIDE = 24;
 export const TD_PERIOD = 0;
 export const TD_TC = 1;
 export const TD_E = 2;
@@ -76,6 +93,8 @@ export const TD_WINDOW_HI = 18; // latest time offset from tc that can be in tra
 export const TD_WINDOWED = 19; // 1: window narrower than the period; 2: never overlaps; 0: no window
 export const TD_SIN_EC = 20; // sin of the eccentric anomaly at conjunction
 export const TD_COS_EC = 21; // cos of the eccentric anomaly at conjunction
+export const TD_AR_DSLOT = 22; // d(a/R_*)/d(slot 4): 1, or d(a/R_*)/d rho_*
+export const TD_AR_DP = 23; // d(a/R_*)/dP at fixed slot 4: 0, or 2 (a/R_*)/(3P)
 
 const HALF_PI = Math.PI / 2;
 
@@ -185,6 +204,7 @@ export function decodeTransitPlanets(
   planets: number,
   angle: TransitAngleForm,
   decoded: Float64Array,
+  scaleForm: TransitScaleForm = 'scaledSemiMajorAxis',
 ): number {
   for (let p = 0; p < planets; p++) {
     const at = p * TRANSIT_PLANET_STRIDE;
@@ -192,16 +212,27 @@ export function decodeTransitPlanets(
     const tc = params[at + TP_TC];
     const e = params[at + TP_ECCENTRICITY];
     const w = params[at + TP_OMEGA];
-    const aR = params[at + TP_SCALED_AXIS];
+    const slot4 = params[at + TP_SCALED_AXIS];
     const g = params[at + TP_ANGLE];
     const k = params[at + TP_RADIUS_RATIO];
     if (!(P > 0 && P < Infinity)) return at + TP_PERIOD;
     if (!Number.isFinite(tc)) return at + TP_TC;
     if (!(e >= 0 && e < 1)) return at + TP_ECCENTRICITY;
     if (!Number.isFinite(w)) return at + TP_OMEGA;
+    const o = p * TD_STRIDE;
+    let aR = slot4;
+    if (scaleForm === 'stellarDensity') {
+      if (!(slot4 > 0 && slot4 < Infinity)) return at + TP_SCALED_AXIS;
+      const seconds = P * SECONDS_PER_DAY;
+      aR = Math.cbrt((GRAVITATIONAL_CONSTANT * slot4 * seconds * seconds) / (3 * Math.PI));
+      decoded[o + TD_AR_DSLOT] = aR / (3 * slot4);
+      decoded[o + TD_AR_DP] = (2 * aR) / (3 * P);
+    } else {
+      decoded[o + TD_AR_DSLOT] = 1;
+      decoded[o + TD_AR_DP] = 0;
+    }
     if (!(aR > 1 && aR < Infinity)) return at + TP_SCALED_AXIS;
     if (!(k > 0 && k < Infinity)) return at + TP_RADIUS_RATIO;
-    const o = p * TD_STRIDE;
     const sw = Math.sin(w);
     const cw = Math.cos(w);
     const root = Math.sqrt((1 - e) * (1 + e));
