@@ -40,10 +40,6 @@ import {
   TD_TC,
 } from './transitParameters.js';
 
-/** Offsets written: z by {@link separationInto}, then ∂z/∂(P, tc, e, omega, a/R_*, angle) by {@link separationPartialsInto}. */
-export const SEP_Z = 0;
-export const SEP_SIZE = 7;
-
 const kepler = new Float64Array(3);
 // Intermediates of the last separationInto call, read by separationPartialsInto:
 // [t - tc, sin E, cos E, C, S, z] (a typed array: module-level numbers would be boxed).
