@@ -57,43 +57,6 @@ export function celUnchecked(kc: number, p: number, a: number, b: number): numbe
 }
 
 /**
- * The two basis integrals of cel for one (kc, p): writes
- * out[at] = cel(kc, p, 1, 0) and out[at + 1] = cel(kc, p, 0, 1), so that
- * cel(kc, p, a, b) = a·out[at] + b·out[at + 1]. One iteration serves both (the
- * recursion is linear in (a, b)). No input checks.
- */
-export function celBasisInto(kc: number, p: number, out: Float64Array, at: number): void {
-  let qc = Math.abs(kc);
-  if (qc < KC_FLOOR) qc = KC_FLOOR;
-  let e = qc;
-  let m = 1;
-  let pp = Math.sqrt(p);
-  // Two (a, b) pairs run through the same recursion: (1, 0) and (0, 1).
-  let a1 = 1;
-  let b1 = 0;
-  let a2 = 0;
-  let b2 = 1 / pp;
-  for (;;) {
-    const f1 = a1;
-    const f2 = a2;
-    a1 += b1 / pp;
-    a2 += b2 / pp;
-    const g = e / pp;
-    b1 = 2 * (b1 + f1 * g);
-    b2 = 2 * (b2 + f2 * g);
-    pp += g;
-    const mOld = m;
-    m += qc;
-    if (Math.abs(mOld - qc) <= mOld * MEANS_AGREE) break;
-    qc = 2 * Math.sqrt(e);
-    e = qc * m;
-  }
-  const scale = HALF_PI / (m * (m + pp));
-  out[at] = (a1 * m + b1) * scale;
-  out[at + 1] = (a2 * m + b2) * scale;
-}
-
-/**
  * The cel basis integrals for two characteristics sharing one modulus, in one
  * iteration (the arithmetic–geometric-mean sequence depends on kc only): writes
  * out[at..at+3] = [cel(kc, 1, 1, 0), cel(kc, 1, 0, 1), cel(kc, p, 1, 0), cel(kc, p, 0, 1)].
