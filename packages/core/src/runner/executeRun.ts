@@ -64,6 +64,7 @@ export async function startExecutor(
  * worker dies; rejects with the signal's reason when aborted.
  */
 export async function executeRun(target: Target | TargetRecipe, options: ExecuteRunOptions = {}): Promise<LongRunResult> {
+  const calledAt = performance.now();
   const { sampler: o, runner } = resolveExecuteOptions(options, 'executeRun');
   let recipe: ResolvedTargetRecipe | null = null;
   let inMemory: Target | null = null;
@@ -148,6 +149,7 @@ export async function executeRun(target: Target | TargetRecipe, options: Execute
     names,
     outputNames,
     elapsedBefore: 0,
+    calledAt,
     progress: runner.progress,
     onProgress: runner.onProgress,
     signal: o.signal,

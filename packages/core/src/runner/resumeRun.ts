@@ -57,6 +57,7 @@ const optionsSchema = z.strictObject({
  * finished is read and returned unchanged (with a note).
  */
 export async function resumeRun(folder: string, options: ResumeRunOptions = {}): Promise<LongRunResult> {
+  const calledAt = performance.now();
   const parsed = optionsSchema.safeParse(options);
   if (!parsed.success) {
     const issue = parsed.error.issues[0];
@@ -76,6 +77,7 @@ export async function resumeRun(folder: string, options: ResumeRunOptions = {}):
       folder: path,
       threads: 0,
       notes: [...done.notes, `the run had already finished (${outcome.stop.message}); nothing was drawn`],
+      timing: { startup: (performance.now() - calledAt) / 1000, sampling: 0 },
     };
   }
 
@@ -156,6 +158,7 @@ export async function resumeRun(folder: string, options: ResumeRunOptions = {}):
     names,
     outputNames: [...executor.outputNames],
     elapsedBefore: checkpoint?.elapsedSeconds ?? 0,
+    calledAt,
     progress: options.progress ?? null,
     onProgress: options.onProgress ?? null,
     signal: options.signal,

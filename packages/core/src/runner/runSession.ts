@@ -25,6 +25,11 @@ export interface LongRunResult extends RunResult {
   readonly threads: number;
   /** Things worth knowing about this session, in plain words (e.g. a torn trace line ignored on resume). */
   readonly notes: string[];
+  /**
+   * Wall-clock seconds of this session: `startup` (checking options and folder, starting
+   * workers, building targets, reading traces back) and `sampling` (from then to the end).
+   */
+  readonly timing: { readonly startup: number; readonly sampling: number };
 }
 
 /** A run folder being written. */
@@ -56,6 +61,8 @@ export interface SessionSetup {
   readonly outputNames: string[];
   /** Seconds taken by earlier sessions. */
   readonly elapsedBefore: number;
+  /** performance.now() (ms) when this session's call began. */
+  readonly calledAt: number;
   readonly progress: boolean | null;
   readonly onProgress: ((progress: RunProgress) => void) | null;
   readonly signal: AbortSignal | undefined;
@@ -130,7 +137,7 @@ export async function driveSession(setup: SessionSetup): Promise<LongRunResult> 
       generation: folder.generation,
       iteration,
       savedAt: new Date().toISOString(),
-      elapsedSeconds: setup.elapsedBefore + sessionSeconds(),
+      elapsedSeconds: setup.elapsedBefore + (performance.now() - setup.calledAt) / 1000,
       chains: entries,
     });
   };
@@ -210,7 +217,7 @@ export async function driveSession(setup: SessionSetup): Promise<LongRunResult> 
         }
         tracker.setStatus(describeAssessment(assessment));
         display?.update(tracker.current(), true);
-        const elapsed = setup.elapsedBefore + sessionSeconds();
+        const elapsed = setup.elapsedBefore + (performance.now() - setup.calledAt) / 1000;
         if (assessment.converged) {
           stop = { reason: 'converged', drawsPerChain: p, message: `converged after ${p} draws per chain: every checked quantity has R-hat < ${criteria.rhatBelow}, bulk ESS >= ${criteria.minBulkEss} and tail ESS >= ${criteria.minTailEss}`, failures: [] };
           break;
@@ -254,7 +261,7 @@ export async function driveSession(setup: SessionSetup): Promise<LongRunResult> 
   await executor.close();
 
   const kept = stop!.drawsPerChain;
-  const elapsed = setup.elapsedBefore + sessionSeconds();
+  const elapsed = setup.elapsedBefore + (performance.now() - setup.calledAt) / 1000;
   if (folder !== null) {
     closeFiles();
     writeOutcome(folder.path, {
@@ -291,5 +298,6 @@ export async function driveSession(setup: SessionSetup): Promise<LongRunResult> 
     folder: folder?.path ?? null,
     threads: executor.threads,
     notes: setup.notes,
+    timing: { startup: started - setup.calledAt / 1000, sampling: sessionSeconds() },
   };
 }
