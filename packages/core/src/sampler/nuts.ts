@@ -5,7 +5,7 @@ import { leapfrogStep } from './leapfrog.js';
 import { applyInverseMass, drawMomentum, kineticEnergy, type Metric } from './metric.js';
 import { copyPhasePoint, createPhasePoint, type PhasePoint } from './phasePoint.js';
 import type { TransitionStats } from './transitionStats.js';
-import { mergeSegments } from './uTurn.js';
+import { createMergeInputs, mergeChain, type MergeInputs } from './uTurn.js';
 
 /** Energy error H − H₀ above which a trajectory is called divergent (common practice). */
 export const divergenceThreshold = 1000;
@@ -19,38 +19,42 @@ interface SampleSlot {
 }
 
 /**
- * What one subtree of a given depth hands to its parent. The arrays are swapped
- * between neighbouring levels (never copied) when halves are merged.
- */
-interface TreeLevel {
-  /** Sum of momenta over the subtree. */
-  rho: Float64Array;
-  /** Momentum and velocity at the subtree's first point (nearest the trajectory start). */
-  innerP: Float64Array;
-  innerV: Float64Array;
-  /** Momentum and velocity at the subtree's last point. */
-  outerP: Float64Array;
-  outerV: Float64Array;
-  /** During a merge: the last point of the first half. */
-  midP: Float64Array;
-  midV: Float64Array;
-}
-
-/**
  * Preallocated buffers for NUTS transitions of one dimension and maximum depth.
  * Reused across transitions; holds no state that matters between them.
+ *
+ * A doubling of depth D adds 2^D points, numbered 0 … 2^D − 1 from the trajectory
+ * end it grows from. After point j, the merges of the binary tree that end at j are
+ * made at once (tz(j + 1) of them, the number of trailing zero bits; plus the merge
+ * with the old trajectory after the last point). What later merges need from point j
+ * is kept in slots indexed by level, which no later point overwrites before it is used:
+ * - an even point j starts the subtrees of levels 1 … t (t = tz(j), or D for j = 0) and
+ *   the second half of the level-(t + 1) subtree: its momentum and velocity go to
+ *   `startP[t]`, `startV[t]` (the momentum is also the summed momentum of the single
+ *   point that is the first half of a level-1 merge);
+ * - an odd point j ends the first half of the level-(m + 1) subtree (m = tz(j + 1)):
+ *   its momentum and velocity go to `endP[m]`, `endV[m]`, and the summed momentum of
+ *   the level-m subtree it completes to `rhoFirst[m]`.
  */
 export interface NutsWorkspace {
   readonly dim: number;
   readonly maxTreeDepth: number;
-  readonly levels: TreeLevel[];
+  readonly startP: Float64Array[];
+  readonly startV: Float64Array[];
+  readonly endP: Float64Array[];
+  readonly endV: Float64Array[];
+  readonly rhoFirst: Float64Array[];
+  /** Inputs of the merges completing at the current point, level 1 first. */
+  readonly merges: MergeInputs[];
   readonly backward: PhasePoint;
   readonly forward: PhasePoint;
   sample: SampleSlot;
   candidate: SampleSlot;
+  /** Summed momentum of the whole trajectory so far. */
   readonly rho: Float64Array;
+  /** Momentum and velocity at the old trajectory's end that a doubling grows from. */
   readonly nearP: Float64Array;
   readonly nearV: Float64Array;
+  readonly scratch: Float64Array;
   // Per-transition scratch values.
   target: Target | null;
   metric: Metric | null;
@@ -60,6 +64,8 @@ export interface NutsWorkspace {
   leapfrogSteps: number;
   acceptanceSum: number;
   divergent: boolean;
+  /** Whether the last doubling's merge with the old trajectory passed its checks. */
+  persists: boolean;
 }
 
 function createSlot(dim: number): SampleSlot {
@@ -69,14 +75,16 @@ function createSlot(dim: number): SampleSlot {
 /** Buffers for NUTS in `dim` dimensions with trees of at most `maxTreeDepth` doublings. */
 export function createNutsWorkspace(dim: number, maxTreeDepth: number): NutsWorkspace {
   const v = (): Float64Array => new Float64Array(dim);
-  const levels: TreeLevel[] = [];
-  for (let k = 0; k < maxTreeDepth; k++) {
-    levels.push({ rho: v(), innerP: v(), innerV: v(), outerP: v(), outerV: v(), midP: v(), midV: v() });
-  }
+  const perLevel = (): Float64Array[] => Array.from({ length: maxTreeDepth + 1 }, v);
   return {
     dim,
     maxTreeDepth,
-    levels,
+    startP: perLevel(),
+    startV: perLevel(),
+    endP: perLevel(),
+    endV: perLevel(),
+    rhoFirst: perLevel(),
+    merges: Array.from({ length: maxTreeDepth + 1 }, createMergeInputs),
     backward: createPhasePoint(dim),
     forward: createPhasePoint(dim),
     sample: createSlot(dim),
@@ -84,6 +92,7 @@ export function createNutsWorkspace(dim: number, maxTreeDepth: number): NutsWork
     rho: v(),
     nearP: v(),
     nearV: v(),
+    scratch: v(),
     target: null,
     metric: null,
     rng: null,
@@ -92,6 +101,7 @@ export function createNutsWorkspace(dim: number, maxTreeDepth: number): NutsWork
     leapfrogSteps: 0,
     acceptanceSum: 0,
     divergent: false,
+    persists: false,
   };
 }
 
@@ -108,17 +118,41 @@ function takeSample(point: PhasePoint, slot: SampleSlot): void {
   slot.kinetic = point.kinetic;
 }
 
+/** Number of trailing zero bits of a positive 32-bit integer. */
+function trailingZeros(x: number): number {
+  return 31 - Math.clz32(x & -x);
+}
+
 /**
- * Extends the trajectory by 2^depth leapfrog steps from `point` (moved in place) with
- * signed step `eps`, and leaves the subtree's summary in `ws.levels[depth]` and its
- * multinomial draw in `ws.candidate`. Returns false when the subtree diverged or
- * made a U-turn inside itself; the caller must then discard it.
+ * Adds 2^depth leapfrog steps to the trajectory from its end `point` (moved in place)
+ * with signed step `eps`, making every merge of the new subtree's binary tree as soon
+ * as its last point exists, and finally the merge of the old trajectory (summed
+ * momentum `ws.rho`, far-end velocity `farVelocity`, near end in `ws.nearP`/`ws.nearV`)
+ * with the new subtree, whose result is left in `ws.persists` and whose summed momentum
+ * replaces `ws.rho`. The subtree's multinomial draw is left in `ws.candidate` and its
+ * log-weight in `ws.subtreeLogWeight`.
+ *
+ * Returns false when the subtree diverged or made a U-turn inside itself; the caller
+ * must then discard it. Points, random draws and checks come in the same order as in
+ * the recursive formulation (each half of a subtree built before the halves are merged).
  */
-function buildSubtree(ws: NutsWorkspace, depth: number, point: PhasePoint, eps: number): boolean {
-  if (depth === 0) {
-    leapfrogStep(ws.target!, ws.metric!, eps, point);
+function extendTrajectory(
+  ws: NutsWorkspace,
+  depth: number,
+  point: PhasePoint,
+  eps: number,
+  farVelocity: Float64Array,
+): boolean {
+  const target = ws.target!;
+  const metric = ws.metric!;
+  const rng = ws.rng!;
+  const h0 = ws.h0;
+  const { startP, startV, endP, endV, rhoFirst, merges } = ws;
+  const count = 2 ** depth;
+  for (let j = 0; j < count; j++) {
+    leapfrogStep(target, metric, eps, point);
     ws.leapfrogSteps += 1;
-    const energyError = point.kinetic - point.logDensity - ws.h0;
+    const energyError = point.kinetic - point.logDensity - h0;
     if (!(energyError <= divergenceThreshold)) {
       ws.divergent = true;
       return false;
@@ -129,58 +163,59 @@ function buildSubtree(ws: NutsWorkspace, depth: number, point: PhasePoint, eps: 
     const logWeight = -energyError;
     const total = logAddExp(ws.subtreeLogWeight, logWeight);
     ws.subtreeLogWeight = total;
-    if (logWeight >= total || ws.rng!.uniform() < Math.exp(logWeight - total)) {
+    if (logWeight >= total || rng.uniform() < Math.exp(logWeight - total)) {
       takeSample(point, ws.candidate);
     }
-    const leaf = ws.levels[0];
-    leaf.rho.set(point.momentum);
-    leaf.innerP.set(point.momentum);
-    leaf.innerV.set(point.velocity);
-    leaf.outerP.set(point.momentum);
-    leaf.outerV.set(point.velocity);
-    return true;
+    const last = j === count - 1;
+    if ((j & 1) === 0 && !last) {
+      const t = j === 0 ? depth : trailingZeros(j);
+      startP[t].set(point.momentum);
+      startV[t].set(point.velocity);
+      continue;
+    }
+    // Merges ending at point j: levels 1 … m of the subtree, then (after the last
+    // point) the old trajectory with the whole subtree.
+    const m = trailingZeros(j + 1);
+    for (let k = 1; k <= m; k++) {
+      const l = merges[k - 1];
+      const first = j + 1 - 2 ** k;
+      const t = first === 0 ? depth : trailingZeros(first);
+      l.vFirstStart = startV[t];
+      if (k === 1) {
+        l.rhoFirst = startP[t];
+      } else {
+        l.rhoFirst = rhoFirst[k - 1];
+        l.pFirstEnd = endP[k - 1];
+        l.vFirstEnd = endV[k - 1];
+        l.pSecondStart = startP[k - 1];
+        l.vSecondStart = startV[k - 1];
+      }
+    }
+    if (last) {
+      const l = merges[m];
+      l.rhoFirst = ws.rho;
+      l.vFirstStart = farVelocity;
+      l.pFirstEnd = ws.nearP;
+      l.vFirstEnd = ws.nearV;
+      l.pSecondStart = startP[depth];
+      l.vSecondStart = startV[depth];
+      const held = mergeChain(merges, m + 1, point.momentum, point.velocity, ws.rho, ws.scratch);
+      if (held < m) return false;
+      ws.persists = held === m + 1;
+      return true;
+    }
+    const held = mergeChain(merges, m, point.momentum, point.velocity, rhoFirst[m], ws.scratch);
+    if (held < m) return false;
+    if (m > 2) {
+      // mergeChain left the sum in rhoFirst[m − 1], whose old content is used up.
+      const t = rhoFirst[m];
+      rhoFirst[m] = rhoFirst[m - 1];
+      rhoFirst[m - 1] = t;
+    }
+    endP[m].set(point.momentum);
+    endV[m].set(point.velocity);
   }
-  const level = ws.levels[depth];
-  const half = ws.levels[depth - 1];
-  if (!buildSubtree(ws, depth - 1, point, eps)) return false;
-  // Keep the first half's summary at this level; `half` is then free for the second.
-  let t = level.rho;
-  level.rho = half.rho;
-  half.rho = t;
-  t = level.innerP;
-  level.innerP = half.innerP;
-  half.innerP = t;
-  t = level.innerV;
-  level.innerV = half.innerV;
-  half.innerV = t;
-  t = level.midP;
-  level.midP = half.outerP;
-  half.outerP = t;
-  t = level.midV;
-  level.midV = half.outerV;
-  half.outerV = t;
-  if (!buildSubtree(ws, depth - 1, point, eps)) return false;
-  // Merge the halves: the whole subtree, and (above depth 1, where they would repeat
-  // that check) the first half plus the second's first point and the first half's last
-  // point plus the second half.
-  const persists = mergeSegments(
-    level.rho,
-    half.rho,
-    level.innerV,
-    level.midP,
-    level.midV,
-    half.innerP,
-    half.innerV,
-    half.outerV,
-    depth > 1,
-  );
-  t = level.outerP;
-  level.outerP = half.outerP;
-  half.outerP = t;
-  t = level.outerV;
-  level.outerV = half.outerV;
-  half.outerV = t;
-  return persists;
+  return true;
 }
 
 /**
@@ -234,7 +269,7 @@ export function nutsTransition(
     ws.nearP.set(end.momentum);
     ws.nearV.set(end.velocity);
     ws.subtreeLogWeight = -Infinity;
-    const valid = buildSubtree(ws, depth, end, goForward ? stepSize : -stepSize);
+    const valid = extendTrajectory(ws, depth, end, goForward ? stepSize : -stepSize, other.velocity);
     treeDepth = depth + 1;
     if (!valid) break;
 
@@ -245,22 +280,8 @@ export function nutsTransition(
       ws.candidate = s;
     }
     logWeight = logAddExp(logWeight, w);
-
-    const level = ws.levels[depth];
-    // The old trajectory (far end `other`, near end saved in nearP/nearV) merged with
-    // the new subtree (first point level.inner, last point `end`).
-    const persists = mergeSegments(
-      ws.rho,
-      level.rho,
-      other.velocity,
-      ws.nearP,
-      ws.nearV,
-      level.innerP,
-      level.innerV,
-      end.velocity,
-      depth > 0,
-    );
-    if (!persists) break;
+    // The old trajectory merged with the new subtree (checked in extendTrajectory).
+    if (!ws.persists) break;
   }
 
   const chosen = ws.sample;

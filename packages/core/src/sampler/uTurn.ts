@@ -89,3 +89,122 @@ export function mergeSegments(
   }
   return a0 > 0 && b0 > 0 && a1 > 0 && b1 > 0 && a2 > 0 && b2 > 0;
 }
+
+/**
+ * References to what one merge of two adjacent trajectory segments needs from the
+ * first segment and from the second segment's first point; the second segment's
+ * summed momentum and last velocity come from the caller. Filled by the tree builder
+ * before each {@link mergeChain}; no data is copied.
+ */
+export interface MergeInputs {
+  /** Summed momentum of the first segment. Receives the merged sum when it is the last level. */
+  rhoFirst: Float64Array;
+  /** Velocity at the first segment's first point. */
+  vFirstStart: Float64Array;
+  /** Momentum and velocity at the first segment's last point (levels ≥ 2 only). */
+  pFirstEnd: Float64Array;
+  vFirstEnd: Float64Array;
+  /** Momentum and velocity at the second segment's first point (levels ≥ 2 only). */
+  pSecondStart: Float64Array;
+  vSecondStart: Float64Array;
+}
+
+/** An empty set of merge inputs (all references to one zero-length array). */
+export function createMergeInputs(): MergeInputs {
+  const none = new Float64Array(0);
+  return { rhoFirst: none, vFirstStart: none, pFirstEnd: none, vFirstEnd: none, pSecondStart: none, vSecondStart: none };
+}
+
+/**
+ * The merges that complete when a trajectory point with momentum `p` and velocity `v`
+ * is added: level 1 merges the point with the single point before it; level k ≥ 2
+ * merges two segments of 2^(k−1) points whose second one ends at this point and has
+ * the summed momentum produced by level k − 1. Level 1 has only the check of the
+ * whole merged segment (the checks across would repeat it); levels ≥ 2 have all three
+ * checks of {@link mergeSegments}.
+ *
+ * The arithmetic is that of {@link mergeSegments} applied level by level, in the same
+ * order of operations, so results are bit-identical; levels 1 and 2 share one pass
+ * over the coordinates, with the intermediate sum kept in a register.
+ *
+ * For `count` ≤ 2 the merged sum of the last level is written to `out` (which may be
+ * `levels[count − 1].rhoFirst`, but no other input); for `count` > 2 it is left in
+ * `levels[count − 1].rhoFirst`, and `scratch` (length dim) is overwritten.
+ * Returns how many levels, from level 1 up, pass their checks (stopping at the first
+ * that fails): `count` when all do.
+ */
+export function mergeChain(
+  levels: readonly MergeInputs[],
+  count: number,
+  p: Float64Array,
+  v: Float64Array,
+  out: Float64Array,
+  scratch: Float64Array,
+): number {
+  if (count === 1) return mergePoint(levels[0], p, v, out);
+  const held = mergePointAndPair(levels[0], levels[1], p, v, count === 2 ? out : scratch);
+  if (count === 2 || held < 2) return held;
+  let second = scratch;
+  for (let k = 2; k < count; k++) {
+    const l = levels[k];
+    const ok = mergeSegments(l.rhoFirst, second, l.vFirstStart, l.pFirstEnd, l.vFirstEnd, l.pSecondStart, l.vSecondStart, v, true);
+    if (!ok) return k;
+    second = l.rhoFirst;
+  }
+  return count;
+}
+
+function mergePoint(l1: MergeInputs, p: Float64Array, v: Float64Array, out: Float64Array): number {
+  const n = p.length;
+  const rho = l1.rhoFirst;
+  const vfs = l1.vFirstStart;
+  let a = 0;
+  let b = 0;
+  for (let i = 0; i < n; i++) {
+    const r = rho[i] + p[i];
+    out[i] = r;
+    a += r * vfs[i];
+    b += r * v[i];
+  }
+  return a > 0 && b > 0 ? 1 : 0;
+}
+
+function mergePointAndPair(l1: MergeInputs, l2: MergeInputs, p: Float64Array, v: Float64Array, out: Float64Array): number {
+  const n = p.length;
+  const rho1 = l1.rhoFirst;
+  const vfs1 = l1.vFirstStart;
+  const rho2 = l2.rhoFirst;
+  const vfs2 = l2.vFirstStart;
+  const pfe2 = l2.pFirstEnd;
+  const vfe2 = l2.vFirstEnd;
+  const pss2 = l2.pSecondStart;
+  const vss2 = l2.vSecondStart;
+  let a1 = 0;
+  let b1 = 0;
+  let a20 = 0;
+  let b20 = 0;
+  let a21 = 0;
+  let b21 = 0;
+  let a22 = 0;
+  let b22 = 0;
+  for (let i = 0; i < n; i++) {
+    const vi = v[i];
+    const s1 = rho1[i] + p[i];
+    a1 += s1 * vfs1[i];
+    b1 += s1 * vi;
+    const f2 = rho2[i];
+    const s2 = f2 + s1;
+    out[i] = s2;
+    const w2 = vfs2[i];
+    a20 += s2 * w2;
+    b20 += s2 * vi;
+    const e21 = f2 + pss2[i];
+    a21 += e21 * w2;
+    b21 += e21 * vss2[i];
+    const e22 = s1 + pfe2[i];
+    a22 += e22 * vfe2[i];
+    b22 += e22 * vi;
+  }
+  if (!(a1 > 0 && b1 > 0)) return 0;
+  return a20 > 0 && b20 > 0 && a21 > 0 && b21 > 0 && a22 > 0 && b22 > 0 ? 2 : 1;
+}
