@@ -43,9 +43,20 @@ async function speedUp(label: string, recipe: TargetRecipe, options: ExecuteRunO
   // other work on the machine hits both alike.
   const serials: LongRunResult[] = [];
   const parallels: LongRunResult[] = [];
+  const cores = { serial: 0, parallel: 0 };
+  // CPU seconds of this process (all its threads) per wall second: how many cores the run got.
+  const measured = async (threads: number): Promise<LongRunResult> => {
+    const c0 = process.cpuUsage();
+    const r = await executeRun(recipe, { ...base, threads });
+    const c = process.cpuUsage(c0);
+    const used = (c.user + c.system) / 1e6 / wall(r);
+    if (threads === 0) cores.serial = Math.max(cores.serial, used);
+    else cores.parallel = Math.max(cores.parallel, used);
+    return r;
+  };
   for (let k = 0; k < (quick ? 1 : 2); k++) {
-    serials.push(await executeRun(recipe, { ...base, threads: 0 }));
-    parallels.push(await executeRun(recipe, { ...base, threads: 2 }));
+    serials.push(await measured(0));
+    parallels.push(await measured(2));
   }
   const identical = parallels.every((p) => same(serials[0], p)) && serials.every((s) => same(serials[0], s));
   const bestSampling = Math.min(...serials.map((r) => r.timing.sampling));
@@ -57,11 +68,12 @@ async function speedUp(label: string, recipe: TargetRecipe, options: ExecuteRunO
   console.log(
     `  speed-up, end to end ${(wall(serial) / wall(parallel)).toFixed(2)}x, sampling only ${(serial.timing.sampling / parallel.timing.sampling).toFixed(2)}x; draws identical: ${identical ? 'yes' : 'NO'}`,
   );
+  console.log(`  cores obtained (CPU s / wall s, best run): serial ${cores.serial.toFixed(2)}, 2 workers ${cores.parallel.toFixed(2)} (an idle machine gives 1 and about 2)`);
 }
 
 async function overhead(): Promise<void> {
   const recipe = { module, exportName: 'fusedSinusoid', args: { n: 1000 } };
-  const base = { chains: 2, warmup: quick ? 500 : 1000, draws: quick ? 500 : 2000, seed: 5, init: sinusoidInit(2), progress: false, threads: 0 };
+  const base = { chains: 2, warmup: quick ? 500 : 1000, draws: quick ? 1000 : 6000, seed: 5, init: sinusoidInit(2), progress: false, threads: 0 };
   let n = 0;
   const folder = () => join(root, `run-${n++}`);
   const variants: (() => ExecuteRunOptions)[] = [
