@@ -19,6 +19,7 @@ import { mkdtempSync, rmSync } from 'node:fs';
 import { loadavg, tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { Worker } from 'node:worker_threads';
 import { executeRun, type ExecuteRunOptions, type LongRunResult, type TargetRecipe } from '@apsis/core';
 import { sinusoidInit } from './runner-targets.js';
 
@@ -96,10 +97,20 @@ async function overhead(): Promise<void> {
   console.log(`  about ${perCheckpoint.toFixed(2)} ms per checkpoint (${base.chains} chains; from the every-50 run)`);
 }
 
+/** Cores two busy-looping worker threads obtain for `seconds`: the ceiling of any speed-up right now. */
+async function coresAvailable(seconds = 1): Promise<number> {
+  const code = `const { parentPort } = require('node:worker_threads'); let s = 0; const t = Date.now(); while (Date.now() - t < ${seconds * 1000}) { for (let i = 0; i < 1e5; i++) s += Math.sqrt(i); } parentPort.postMessage(s);`;
+  const c0 = process.cpuUsage();
+  const t0 = performance.now();
+  await Promise.all([0, 1].map(() => new Promise((done) => new Worker(code, { eval: true }).on('message', done))));
+  const c = process.cpuUsage(c0);
+  return (c.user + c.system) / 1e6 / ((performance.now() - t0) / 1000);
+}
+
 const load = () => loadavg().map((x) => x.toFixed(2)).join(', ');
-console.log(`load average before: ${load()} (2 cores; figures are only clean when nothing else runs)`);
+console.log(`load average before: ${load()}; two busy-looping threads obtain ${(await coresAvailable()).toFixed(2)} cores (2 on an idle machine)`);
 await speedUp('fused JS (n = 2000)', { module, exportName: 'fusedSinusoid', args: { n: 2000 } }, { warmup: quick ? 400 : 1000, draws: quick ? 400 : 3000 });
 await speedUp('TensorFlow.js likelihood (n = 1000)', { module, exportName: 'tensorSinusoid', args: { n: 1000 } }, { warmup: quick ? 100 : 200, draws: quick ? 100 : 400 });
 await overhead();
-console.log(`load average after: ${load()}`);
+console.log(`load average after: ${load()}; two busy-looping threads obtain ${(await coresAvailable()).toFixed(2)} cores`);
 rmSync(root, { recursive: true, force: true });
