@@ -11,7 +11,7 @@ export function runDescription(run: RunFolderContents): string[] {
   const m = run.manifest;
   const s = m.settings;
   const lines = [
-    `run folder: ${m.label ? `${m.label} ` : ''}(run ${m.runId.slice(0, 8)}, started ${m.createdAt})`,
+    `run ${m.runId.slice(0, 8)}${m.label ? ` (${m.label})` : ''}, started ${m.createdAt}`,
     `sampler: ${s.method === 'nuts' ? 'NUTS' : 'static HMC'}, ${s.metric} metric, ${m.chains} chains, ${s.warmup} warmup iterations, seed ${m.seed}`,
   ];
   if (run.outcome) lines.push(`finished: ${run.outcome.stop.message} (${run.outcome.elapsedSeconds.toFixed(1)} s)`);
