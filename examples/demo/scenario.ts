@@ -59,7 +59,7 @@ export interface TruePlanet {
 export const planets: readonly TruePlanet[] = [
   {
     label: 'b',
-    period: 4.312718,
+    period: 4.324613,
     tc: 2460801.36472,
     eccentricity: 0.04,
     omega: 62,
@@ -135,6 +135,6 @@ export const dataSeed = 'Orvanne observations, seed 2041';
  * look at the data (not the true values), and no eccentricity information.
  */
 export const guesses = {
-  b: { period: 4.3127, tc: 2460801.364 },
+  b: { period: 4.3246, tc: 2460801.364 },
   c: { period: 38.8, tc: 2460773.5 },
 } as const;
