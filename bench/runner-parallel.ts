@@ -20,7 +20,10 @@ import { loadavg, tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { Worker } from 'node:worker_threads';
-import { executeRun, type ExecuteRunOptions, type LongRunResult, type TargetRecipe } from '@apsis/core';
+import { executeRun, readManifest, type ExecuteRunOptions, type LongRunResult, type TargetRecipe } from '@apsis/core';
+import { readLatestCheckpoint, writeCheckpoint } from '../packages/core/src/runner/checkpointStore.js';
+import { createRowBlock } from '../packages/core/src/runner/rowBlock.js';
+import { openTraceWriter } from '../packages/core/src/runner/traceWriter.js';
 import { sinusoidInit } from './runner-targets.js';
 
 const quick = process.argv.includes('--quick');
@@ -95,6 +98,35 @@ async function overhead(): Promise<void> {
   const perCheckpoint = ((every50 - streamed) / Math.floor(total / 50)) * 1000;
   console.log(`  traces only ${frac(streamed)}, + checkpoint every 500 iterations ${frac(every500)}, + every 50 ${frac(every50)}`);
   console.log(`  about ${perCheckpoint.toFixed(2)} ms per checkpoint (${base.chains} chains; from the every-50 run)`);
+
+  // Direct costs, less sensitive to other load: one checkpoint (fsync of the traces, then
+  // the atomic write), and formatting plus appending one trace row.
+  const dir = folder();
+  await executeRun(recipe, { ...base, warmup: 20, draws: 20, folder: dir, checkpointEvery: 10 });
+  const manifest = readManifest(dir);
+  const { checkpoint } = readLatestCheckpoint(dir, manifest);
+  const writers = manifest.traces.map((t, c) => openTraceWriter(join(dir, t), '', manifest.dim, manifest.columns.outputs.length, { bytes: checkpoint!.chains[c].traceBytes, rows: checkpoint!.chains[c].rows }));
+  const times: number[] = [];
+  for (let k = 0; k < 40; k++) {
+    const t0 = performance.now();
+    for (const w of writers) w.sync();
+    writeCheckpoint(dir, manifest, { ...checkpoint!, generation: checkpoint!.generation + 1 + k });
+    times.push(performance.now() - t0);
+  }
+  times.sort((a, b) => a - b);
+  const block = createRowBlock(0, checkpoint!.iteration, 1000, manifest.dim, 0);
+  block.count = 1000;
+  const t1 = performance.now();
+  for (let k = 0; k < 20; k++) writers[0].append({ ...block, first: block.first + k * 1000 });
+  const perRow = ((performance.now() - t1) / 20000) * 1000;
+  for (const w of writers) w.close();
+  const perIteration = (plain / (base.chains * total)) * 1e6;
+  console.log(
+    `  direct: one checkpoint ${times[20].toFixed(2)} ms (median of 40, ${base.chains} chains), one trace row ${perRow.toFixed(2)} µs; this target takes ${perIteration.toFixed(0)} µs per iteration`,
+  );
+  console.log(
+    `  so: traces ${((perRow / perIteration) * 100).toFixed(2)}% of run time, a checkpoint every 500 iterations ${((times[20] / (500 * base.chains * perIteration / 1000)) * 100).toFixed(2)}%, every 50 ${((times[20] / (50 * base.chains * perIteration / 1000)) * 100).toFixed(1)}%`,
+  );
 }
 
 /** Cores two busy-looping worker threads obtain for `seconds`: the ceiling of any speed-up right now. */
@@ -109,8 +141,8 @@ async function coresAvailable(seconds = 1): Promise<number> {
 
 const load = () => loadavg().map((x) => x.toFixed(2)).join(', ');
 console.log(`load average before: ${load()}; two busy-looping threads obtain ${(await coresAvailable()).toFixed(2)} cores (2 on an idle machine)`);
-await speedUp('fused JS (n = 2000)', { module, exportName: 'fusedSinusoid', args: { n: 2000 } }, { warmup: quick ? 400 : 1000, draws: quick ? 400 : 3000 });
-await speedUp('TensorFlow.js likelihood (n = 1000)', { module, exportName: 'tensorSinusoid', args: { n: 1000 } }, { warmup: quick ? 100 : 200, draws: quick ? 100 : 400 });
+if (!process.argv.includes('--overhead-only')) await speedUp('fused JS (n = 2000)', { module, exportName: 'fusedSinusoid', args: { n: 2000 } }, { warmup: quick ? 400 : 1000, draws: quick ? 400 : 3000 });
+if (!process.argv.includes('--overhead-only')) await speedUp('TensorFlow.js likelihood (n = 1000)', { module, exportName: 'tensorSinusoid', args: { n: 1000 } }, { warmup: quick ? 100 : 200, draws: quick ? 100 : 400 });
 await overhead();
 console.log(`load average after: ${load()}; two busy-looping threads obtain ${(await coresAvailable()).toFixed(2)} cores`);
 rmSync(root, { recursive: true, force: true });
