@@ -12,12 +12,31 @@
  * bound); the data and the run have fixed seeds, so the outcome is reproducible. The short variant of
  * this check runs always in tests/demo-smoke.test.ts.
  */
-import { mkdtempSync, rmSync } from 'node:fs';
+import { mkdtempSync, readdirSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
+import { fileURLToPath } from 'node:url';
 import { afterAll, describe, expect, it } from 'vitest';
 import { main } from '../examples/demo.js';
 import { centralInterval, demoSections } from '../examples/demo/parameterTable.js';
+
+const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
+
+/** The text blocks of docs/*.md marked as demo output, with their non-blank lines. */
+function demoOutputBlocks(): { where: string; lines: string[] }[] {
+  const out: { where: string; lines: string[] }[] = [];
+  for (const page of readdirSync(path.join(root, 'docs')).filter((f) => f.endsWith('.md'))) {
+    const lines = readFileSync(path.join(root, 'docs', page), 'utf8').split('\n');
+    lines.forEach((l, i) => {
+      if (l.trim() !== '<!-- sample: demo-output -->') return;
+      const indent = /^\s*/.exec(lines[i + 1])![0];
+      const body: string[] = [];
+      for (let j = i + 2; j < lines.length && lines[j].trim() !== '```'; j++) if (lines[j].trim() !== '') body.push(lines[j].slice(indent.length).trimEnd());
+      out.push({ where: `docs/${page}:${i + 2}`, lines: body });
+    });
+  }
+  return out;
+}
 
 describe.runIf(process.env.APSIS_FULL === '1')('full demo run', () => {
   let dir = '';
@@ -47,5 +66,22 @@ describe.runIf(process.env.APSIS_FULL === '1')('full demo run', () => {
       if (!(truth >= low && truth <= high)) misses.push(`${column}: true ${truth} outside [${low}, ${high}]`);
     }
     expect(misses).toEqual([]);
+
+    // The demo output quoted in the docs (blocks marked <!-- sample: demo-output -->) is
+    // what this run printed, line for line.
+    const printed = new Set(result.text.split('\n').map((l) => l.trimEnd()));
+    const quoted = demoOutputBlocks();
+    expect(quoted.length).toBeGreaterThan(0);
+    for (const { where, lines } of quoted) {
+      for (const line of lines) expect(printed.has(line), `${where}: "${line}"`).toBe(true);
+    }
+    // docs/convergence.md quotes the period's mean, sd and MC error from `apsis summary runs/demo`.
+    const period = rows.get('period_b')!;
+    const convergence = readFileSync(path.join(root, 'docs/convergence.md'), 'utf8');
+    const quotedPeriod = /period of ([\d.]+) d with a posterior sd of\s+([\d.]+) d and an MC error of ([\d.]+) d/.exec(convergence);
+    expect(quotedPeriod).not.toBeNull();
+    expect(quotedPeriod![1]).toBe(period.mean.toFixed(5));
+    expect(quotedPeriod![2]).toBe(period.sd.toPrecision(3));
+    expect(Number(quotedPeriod![3])).toBe(Number(period.mcseMean!.toPrecision(2)));
   }, 900_000);
 });

@@ -13,6 +13,8 @@
  *   <!-- sample: file PATH -->      the block is the repository file PATH, verbatim
  *   <!-- sample: excerpt PATH -->   every non-blank line of the block occurs in PATH
  *   <!-- sample: fragment WHY -->   not a program (fields of an object, a signature): not checked
+ *   <!-- sample: demo-output -->    (before a text block) lines printed by `pnpm demo`: checked
+ *                                   against a full demo run by tests/demo-full.test.ts
  *
  * Every ```ts block must carry one of these, except on pages whose samples have their
  * own test (listed in `coveredElsewhere`, checked to exist). Besides the samples, the
@@ -41,8 +43,8 @@ const coveredElsewhere: Record<string, string> = {
   'report.md': 'packages/report/test/docsExample.test.ts',
 };
 
-type Kind = 'run' | 'output' | 'types' | 'file' | 'excerpt' | 'fragment';
-const kinds: readonly Kind[] = ['run', 'output', 'types', 'file', 'excerpt', 'fragment'];
+type Kind = 'run' | 'output' | 'types' | 'file' | 'excerpt' | 'fragment' | 'demo-output';
+const kinds: readonly Kind[] = ['run', 'output', 'types', 'file', 'excerpt', 'fragment', 'demo-output'];
 
 interface Block {
   readonly page: string;
@@ -81,7 +83,7 @@ function parseBlocks(page: string, text: string): Block[] {
         .replace(/^[\s\S]*?<!--/, '')
         .replace(/-->\s*$/, '')
         .trim();
-      const m = /^sample:\s*(\w+)\s*([\s\S]*)$/.exec(comment);
+      const m = /^sample:\s*([\w-]+)\s*([\s\S]*)$/.exec(comment);
       if (m) {
         const kind = m[1] as Kind;
         if (!kinds.includes(kind)) markerError = `unknown sample kind "${m[1]}" (expected one of ${kinds.join(', ')})`;
@@ -218,11 +220,12 @@ describe('docs code samples', () => {
     });
   }
 
-  it('every output block follows a run sample', () => {
+  it('every output block follows a run sample; output and demo-output blocks are text', () => {
     for (const out of samples('output')) {
       const before = checked.filter((x) => x.page === out.page && x.line < out.line && x.marker?.kind === 'run');
       expect(before.length, `${where(out)} has no run sample above it`).toBeGreaterThan(0);
     }
+    for (const b of [...samples('output'), ...samples('demo-output')]) expect(b.lang, where(b)).toBe('text');
   });
 
   it('shell commands in the docs name files that exist', () => {
