@@ -12,7 +12,7 @@ afterAll(() => rmSync(root, { recursive: true, force: true }));
 let n = 0;
 const fresh = (): string => join(root, `run-${n++}`);
 const target = () => gaussian({ dim: 3, scale: 2 });
-const base: ExecuteRunOptions = { chains: 2, warmup: 100, draws: 200, seed: 77, checkpointEvery: 40, progress: false };
+const base: ExecuteRunOptions = { chains: 2, warmup: 100, draws: 200, seed: 77, checkpointEvery: 40, minCheckpointSeconds: 0, progress: false };
 
 /** Starts a run with a folder and aborts it once some chain has passed `at` iterations. */
 async function interrupted(at: number, extra: ExecuteRunOptions = {}): Promise<string> {
@@ -87,6 +87,15 @@ describe('checkpoints and resume', () => {
     await expect(attempt).rejects.toThrow(CheckpointError);
     await expect(attempt).rejects.toThrow(/No usable checkpoint is left; to start the run again from its first iteration, delete the checkpoint files/);
     expect(previous.generation).toBeGreaterThan(0);
+  });
+
+  it('skips boundaries reached sooner than minCheckpointSeconds, but always checkpoints the end', async () => {
+    const folder = fresh();
+    await executeRun(target(), { ...base, folder, checkpointEvery: 10, minCheckpointSeconds: 3600 });
+    // Boundary 10 is written at once, 20 … 290 fall within the hour, 300 is the end.
+    expect(slots(folder).map((x) => x.generation)).toEqual([2, 1]);
+    const newest = JSON.parse(slots(folder)[0].text) as { body: { iteration: number } };
+    expect(newest.body.iteration).toBe(300);
   });
 
   it('refuses a different target: it would not reproduce the checkpointed log densities', async () => {

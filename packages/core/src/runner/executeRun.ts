@@ -144,6 +144,7 @@ export async function executeRun(target: Target | TargetRecipe, options: Execute
     startIteration: 0,
     folder,
     checkpointEvery: runner.checkpointEvery,
+    minCheckpointSeconds: runner.minCheckpointSeconds,
     syncSeconds: runner.syncSeconds,
     criteria: runner.untilConverged,
     names,

@@ -11,6 +11,12 @@ export interface LongRunOptions {
   folder?: string;
   /** Iterations between checkpoints in the run folder (default 500; 0: none). */
   checkpointEvery?: number;
+  /**
+   * Fewest seconds between two checkpoints (default 10): a boundary reached sooner is
+   * skipped, which bounds the cost of checkpoints for fast targets. The last iteration
+   * is always checkpointed. 0: every boundary.
+   */
+  minCheckpointSeconds?: number;
   /** Seconds between fsyncs of the trace files (default 5). */
   syncSeconds?: number;
   /** Draw progress on stderr (default: when stderr is a terminal and CI is not set). */
@@ -26,6 +32,7 @@ export const longRunOptionKeys: readonly (keyof LongRunOptions)[] = [
   'threads',
   'folder',
   'checkpointEvery',
+  'minCheckpointSeconds',
   'syncSeconds',
   'progress',
   'untilConverged',

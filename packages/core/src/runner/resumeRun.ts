@@ -35,6 +35,8 @@ export interface ResumeRunOptions {
   signal?: AbortSignal;
   /** Seconds between fsyncs of the trace files (default 5). */
   syncSeconds?: number;
+  /** Fewest seconds between two checkpoints (default 10; 0: every boundary). */
+  minCheckpointSeconds?: number;
 }
 
 const optionsSchema = z.strictObject({
@@ -45,6 +47,7 @@ const optionsSchema = z.strictObject({
   keepWarmup: z.boolean().optional(),
   signal: z.custom<AbortSignal>((v) => v instanceof AbortSignal).optional(),
   syncSeconds: z.number().gt(0).finite().optional(),
+  minCheckpointSeconds: z.number().min(0).finite().optional(),
 });
 
 /**
@@ -153,6 +156,7 @@ export async function resumeRun(folder: string, options: ResumeRunOptions = {}):
     startIteration,
     folder: { path, manifest, writers, generation: checkpoint?.generation ?? 0 },
     checkpointEvery: manifest.checkpoints?.every ?? 0,
+    minCheckpointSeconds: options.minCheckpointSeconds ?? 10,
     syncSeconds: options.syncSeconds ?? 5,
     criteria: manifest.untilConverged,
     names,

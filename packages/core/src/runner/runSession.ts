@@ -55,6 +55,8 @@ export interface SessionSetup {
   readonly startIteration: number;
   readonly folder: FolderSink | null;
   readonly checkpointEvery: number;
+  /** Skip a checkpoint boundary reached sooner than this after the previous checkpoint (seconds). */
+  readonly minCheckpointSeconds: number;
   readonly syncSeconds: number;
   readonly criteria: ResolvedConvergenceCriteria | null;
   readonly names: string[];
@@ -127,8 +129,13 @@ export async function driveSession(setup: SessionSetup): Promise<LongRunResult> 
   let lastSync = performance.now() / 1000;
   const checkpointing = folder !== null && folder.manifest.checkpoints !== null && setup.checkpointEvery > 0;
 
+  let lastCheckpoint = -Infinity;
+  let goal = -1;
   const saveCheckpoint = (iteration: number, entries: CheckpointChain[]): void => {
     if (folder === null) return;
+    const now = performance.now() / 1000;
+    if (iteration !== goal && now - lastCheckpoint < setup.minCheckpointSeconds) return;
+    lastCheckpoint = now;
     for (const w of folder.writers) w.sync();
     lastSync = performance.now() / 1000;
     folder.generation += 1;
@@ -191,7 +198,11 @@ export async function driveSession(setup: SessionSetup): Promise<LongRunResult> 
 
   const request = (goal: number) => ({ goal, snapshotEvery: checkpointing ? setup.checkpointEvery : 0, snapshotAtGoal: checkpointing });
   // A stop asked for before an advance starts is honoured here (hosts reset it per advance).
-  const advance = async (goal: number): Promise<ChainStanding[]> => (aborted || failure !== null ? standing : executor.advance(request(goal)));
+  const advance = async (to: number): Promise<ChainStanding[]> => {
+    if (aborted || failure !== null) return standing;
+    goal = to;
+    return executor.advance(request(to));
+  };
   let standing: ChainStanding[] = [];
   let stop: RunStop;
   let assessment: ConvergenceAssessment | null = null;

@@ -18,6 +18,7 @@ export interface ResolvedRunnerOptions {
   readonly threads: number | null;
   readonly folder: string | null;
   readonly checkpointEvery: number;
+  readonly minCheckpointSeconds: number;
   readonly syncSeconds: number;
   readonly progress: boolean | null;
   readonly onProgress: ((progress: RunProgress) => void) | null;
@@ -25,12 +26,13 @@ export interface ResolvedRunnerOptions {
   readonly label: string | null;
 }
 
-const runnerKeys = ['threads', 'folder', 'checkpointEvery', 'syncSeconds', 'progress', 'onProgress', 'untilConverged', 'label'] as const;
+const runnerKeys = ['threads', 'folder', 'checkpointEvery', 'minCheckpointSeconds', 'syncSeconds', 'progress', 'onProgress', 'untilConverged', 'label'] as const;
 
 const runnerExpected: Record<(typeof runnerKeys)[number], string> = {
   threads: 'an integer from 0 to 256',
   folder: 'a non-empty path',
   checkpointEvery: 'an integer >= 0 (iterations; 0 for none)',
+  minCheckpointSeconds: 'a number >= 0 (seconds)',
   syncSeconds: 'a number > 0 (seconds)',
   progress: 'true or false',
   onProgress: 'a function',
@@ -42,6 +44,7 @@ const runnerSchema = z.object({
   threads: z.number().int().min(0).max(256).optional(),
   folder: z.string().min(1).optional(),
   checkpointEvery: z.number().int().min(0).max(1e12).optional(),
+  minCheckpointSeconds: z.number().min(0).finite().optional(),
   syncSeconds: z.number().gt(0).finite().optional(),
   progress: z.boolean().optional(),
   onProgress: z.custom<(p: RunProgress) => void>((v) => typeof v === 'function').optional(),
@@ -89,6 +92,7 @@ export function resolveExecuteOptions(
       threads: r.threads ?? null,
       folder: r.folder ?? null,
       checkpointEvery: r.checkpointEvery ?? 500,
+      minCheckpointSeconds: r.minCheckpointSeconds ?? 10,
       syncSeconds: r.syncSeconds ?? 5,
       progress: r.progress ?? null,
       onProgress: r.onProgress ?? null,
