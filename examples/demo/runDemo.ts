@@ -153,9 +153,10 @@ export async function main(options: DemoOptions = {}): Promise<DemoResult> {
 
   say(`apsis demo: a joint radial-velocity + transit fit of ${star.name}, an invented star with two planets`);
   const observations = simulateObservations();
-  const labels = typeof observations.rv.instrument === 'string' ? [observations.rv.instrument] : observations.rv.instrument;
-  const rvCount = (label: string): number => labels.filter((l) => l === label).length;
   const rvTimes = Float64Array.from(observations.rv.times);
+  const instrument = observations.rv.instrument;
+  const rvCount = (label: string): number =>
+    typeof instrument === 'string' ? (instrument === label ? rvTimes.length : 0) : instrument.filter((l) => l === label).length;
   say(
     `data (simulated with a fixed seed): ${rvTimes.length} radial velocities over ${Math.round(rvTimes[rvTimes.length - 1] - rvTimes[0])} days from ${spectrographs
       .map((s) => `${s.name} (${rvCount(s.label)})`)
