@@ -1,11 +1,21 @@
 import type { RandomStream } from '../random/index.js';
 import type { Target } from '../target.js';
 import type { ChainPoint } from './chainPoint.js';
-import { leapfrogStep } from './leapfrog.js';
+import { leapfrogStep, slabKick, slabKickDrift } from './leapfrog.js';
 import { applyInverseMass, drawMomentum, kineticEnergy, type Metric } from './metric.js';
-import { copyPhasePoint, createPhasePoint, type PhasePoint } from './phasePoint.js';
+import { copyPhasePoint, type PhasePoint } from './phasePoint.js';
 import type { TransitionStats } from './transitionStats.js';
-import { createMergeInputs, mergeChain, type MergeInputs } from './uTurn.js';
+import {
+  createMergeInputs,
+  createSlabMerge,
+  mergeChain,
+  slabKickMergePair,
+  slabKickMergePoint,
+  slabMergeAcross,
+  type KickEnergy,
+  type MergeInputs,
+  type SlabMerge,
+} from './uTurn.js';
 
 /** Energy error H − H₀ above which a trajectory is called divergent (common practice). */
 export const divergenceThreshold = 1000;
@@ -16,6 +26,14 @@ interface SampleSlot {
   readonly gradient: Float64Array;
   logDensity: number;
   kinetic: number;
+}
+
+/** Offsets in the slab of one trajectory end's vectors. */
+interface EndOffsets {
+  readonly q: number;
+  readonly g: number;
+  readonly p: number;
+  readonly v: number;
 }
 
 /**
@@ -34,19 +52,32 @@ interface SampleSlot {
  * - an odd point j ends the first half of the level-(m + 1) subtree (m = tz(j + 1)):
  *   its momentum and velocity go to `endP[m]`, `endV[m]`, and the summed momentum of
  *   the level-m subtree it completes to `rhoFirst[m]`.
+ *
+ * Every vector of length dim lives in one Float64Array, `slab`; the typed arrays below
+ * are views into it, and the `*At` numbers are the same vectors' offsets, which the
+ * diagonal-metric kernels use (see leapfrog.ts for why).
  */
 export interface NutsWorkspace {
   readonly dim: number;
   readonly maxTreeDepth: number;
+  readonly slab: Float64Array;
   readonly startP: Float64Array[];
   readonly startV: Float64Array[];
   readonly endP: Float64Array[];
   readonly endV: Float64Array[];
   readonly rhoFirst: Float64Array[];
-  /** Inputs of the merges completing at the current point, level 1 first. */
+  readonly startPAt: Int32Array;
+  readonly startVAt: Int32Array;
+  readonly endPAt: Int32Array;
+  readonly endVAt: Int32Array;
+  readonly rhoFirstAt: Int32Array;
+  /** Inputs of the merges completing at the current point, level 1 first (arrays, and offsets). */
   readonly merges: MergeInputs[];
+  readonly slabMerges: SlabMerge[];
   readonly backward: PhasePoint;
   readonly forward: PhasePoint;
+  readonly backwardAt: EndOffsets;
+  readonly forwardAt: EndOffsets;
   sample: SampleSlot;
   candidate: SampleSlot;
   /** Summed momentum of the whole trajectory so far. */
@@ -55,6 +86,15 @@ export interface NutsWorkspace {
   readonly nearP: Float64Array;
   readonly nearV: Float64Array;
   readonly scratch: Float64Array;
+  readonly rhoAt: number;
+  readonly nearPAt: number;
+  readonly nearVAt: number;
+  readonly scratchAt: number;
+  /** Half-step momentum between the two halves of a leapfrog step (diagonal metric). */
+  readonly halfAt: number;
+  /** The diagonal inverse mass, copied into the slab for each transition. */
+  readonly inverseMassAt: number;
+  readonly energy: KickEnergy;
   // Per-transition scratch values.
   target: Target | null;
   metric: Metric | null;
@@ -74,25 +114,74 @@ function createSlot(dim: number): SampleSlot {
 
 /** Buffers for NUTS in `dim` dimensions with trees of at most `maxTreeDepth` doublings. */
 export function createNutsWorkspace(dim: number, maxTreeDepth: number): NutsWorkspace {
-  const v = (): Float64Array => new Float64Array(dim);
-  const perLevel = (): Float64Array[] => Array.from({ length: maxTreeDepth + 1 }, v);
+  const levels = maxTreeDepth + 1;
+  // Vectors: 5 per level, 10 for the two ends, rho, nearP, nearV, scratch, half, inverse mass.
+  const slab = new Float64Array(dim * (5 * levels + 16));
+  let next = 0;
+  const take = (): number => {
+    const at = next;
+    next += dim;
+    return at;
+  };
+  const view = (at: number): Float64Array => slab.subarray(at, at + dim);
+  const perLevel = (): Int32Array => Int32Array.from({ length: levels }, take);
+  const startPAt = perLevel();
+  const startVAt = perLevel();
+  const endPAt = perLevel();
+  const endVAt = perLevel();
+  const rhoFirstAt = perLevel();
+  const end = (): { point: PhasePoint; at: EndOffsets } => {
+    const at = { q: take(), g: take(), p: take(), v: take() };
+    const point: PhasePoint = {
+      position: view(at.q),
+      momentum: view(at.p),
+      velocity: view(at.v),
+      gradient: view(at.g),
+      scaledGradient: view(take()),
+      logDensity: 0,
+      kinetic: 0,
+    };
+    return { point, at };
+  };
+  const backward = end();
+  const forward = end();
+  const rhoAt = take();
+  const nearPAt = take();
+  const nearVAt = take();
+  const scratchAt = take();
   return {
     dim,
     maxTreeDepth,
-    startP: perLevel(),
-    startV: perLevel(),
-    endP: perLevel(),
-    endV: perLevel(),
-    rhoFirst: perLevel(),
-    merges: Array.from({ length: maxTreeDepth + 1 }, createMergeInputs),
-    backward: createPhasePoint(dim),
-    forward: createPhasePoint(dim),
+    slab,
+    startP: Array.from(startPAt, view),
+    startV: Array.from(startVAt, view),
+    endP: Array.from(endPAt, view),
+    endV: Array.from(endVAt, view),
+    rhoFirst: Array.from(rhoFirstAt, view),
+    startPAt,
+    startVAt,
+    endPAt,
+    endVAt,
+    rhoFirstAt,
+    merges: Array.from({ length: levels }, createMergeInputs),
+    slabMerges: Array.from({ length: levels }, createSlabMerge),
+    backward: backward.point,
+    forward: forward.point,
+    backwardAt: backward.at,
+    forwardAt: forward.at,
     sample: createSlot(dim),
     candidate: createSlot(dim),
-    rho: v(),
-    nearP: v(),
-    nearV: v(),
-    scratch: v(),
+    rho: view(rhoAt),
+    nearP: view(nearPAt),
+    nearV: view(nearVAt),
+    scratch: view(scratchAt),
+    rhoAt,
+    nearPAt,
+    nearVAt,
+    scratchAt,
+    halfAt: take(),
+    inverseMassAt: take(),
+    energy: { twiceKinetic: 0 },
     target: null,
     metric: null,
     rng: null,
@@ -127,10 +216,10 @@ function trailingZeros(x: number): number {
  * Adds 2^depth leapfrog steps to the trajectory from its end `point` (moved in place)
  * with signed step `eps`, making every merge of the new subtree's binary tree as soon
  * as its last point exists, and finally the merge of the old trajectory (summed
- * momentum `ws.rho`, far-end velocity `farVelocity`, near end in `ws.nearP`/`ws.nearV`)
- * with the new subtree, whose result is left in `ws.persists` and whose summed momentum
- * replaces `ws.rho`. The subtree's multinomial draw is left in `ws.candidate` and its
- * log-weight in `ws.subtreeLogWeight`.
+ * momentum `ws.rho`, far end `far`, near end in `ws.nearP`/`ws.nearV`) with the new
+ * subtree, whose result is left in `ws.persists` and whose summed momentum replaces
+ * `ws.rho`. The subtree's multinomial draw is left in `ws.candidate` and its log-weight
+ * in `ws.subtreeLogWeight`.
  *
  * Returns false when the subtree diverged or made a U-turn inside itself; the caller
  * must then discard it. Points, random draws and checks come in the same order as in
@@ -140,32 +229,19 @@ function extendTrajectory(
   ws: NutsWorkspace,
   depth: number,
   point: PhasePoint,
+  at: EndOffsets,
   eps: number,
-  farVelocity: Float64Array,
+  far: PhasePoint,
+  farAt: EndOffsets,
 ): boolean {
+  if (ws.metric!.kind === 'diagonal') return extendDiagonal(ws, depth, point, at, eps, farAt.v);
   const target = ws.target!;
   const metric = ws.metric!;
-  const rng = ws.rng!;
-  const h0 = ws.h0;
   const { startP, startV, endP, endV, rhoFirst, merges } = ws;
-  const count = 2 ** depth;
+  const count = 1 << depth;
   for (let j = 0; j < count; j++) {
     leapfrogStep(target, metric, eps, point);
-    ws.leapfrogSteps += 1;
-    const energyError = point.kinetic - point.logDensity - h0;
-    if (!(energyError <= divergenceThreshold)) {
-      ws.divergent = true;
-      return false;
-    }
-    ws.acceptanceSum += energyError > 0 ? Math.exp(-energyError) : 1;
-    // Multinomial draw within the subtree by weighted reservoir sampling: each point is
-    // kept with probability weight / (weight of the subtree so far).
-    const logWeight = -energyError;
-    const total = logAddExp(ws.subtreeLogWeight, logWeight);
-    ws.subtreeLogWeight = total;
-    if (logWeight >= total || rng.uniform() < Math.exp(logWeight - total)) {
-      takeSample(point, ws.candidate);
-    }
+    if (!acceptPoint(ws, point)) return false;
     const last = j === count - 1;
     if ((j & 1) === 0 && !last) {
       const t = j === 0 ? depth : trailingZeros(j);
@@ -175,30 +251,8 @@ function extendTrajectory(
     }
     // Merges ending at point j: levels 1 … m of the subtree, then (after the last
     // point) the old trajectory with the whole subtree.
-    const m = trailingZeros(j + 1);
-    for (let k = 1; k <= m; k++) {
-      const l = merges[k - 1];
-      const first = j + 1 - 2 ** k;
-      const t = first === 0 ? depth : trailingZeros(first);
-      l.vFirstStart = startV[t];
-      if (k === 1) {
-        l.rhoFirst = startP[t];
-      } else {
-        l.rhoFirst = rhoFirst[k - 1];
-        l.pFirstEnd = endP[k - 1];
-        l.vFirstEnd = endV[k - 1];
-        l.pSecondStart = startP[k - 1];
-        l.vSecondStart = startV[k - 1];
-      }
-    }
+    const m = fillMerges(ws, j, depth, last, far.velocity);
     if (last) {
-      const l = merges[m];
-      l.rhoFirst = ws.rho;
-      l.vFirstStart = farVelocity;
-      l.pFirstEnd = ws.nearP;
-      l.vFirstEnd = ws.nearV;
-      l.pSecondStart = startP[depth];
-      l.vSecondStart = startV[depth];
       const held = mergeChain(merges, m + 1, point.momentum, point.velocity, ws.rho, ws.scratch);
       if (held < m) return false;
       ws.persists = held === m + 1;
@@ -206,16 +260,190 @@ function extendTrajectory(
     }
     const held = mergeChain(merges, m, point.momentum, point.velocity, rhoFirst[m], ws.scratch);
     if (held < m) return false;
-    if (m > 2) {
-      // mergeChain left the sum in rhoFirst[m − 1], whose old content is used up.
-      const t = rhoFirst[m];
-      rhoFirst[m] = rhoFirst[m - 1];
-      rhoFirst[m - 1] = t;
-    }
+    if (m > 2) swapSums(ws, m);
     endP[m].set(point.momentum);
     endV[m].set(point.velocity);
   }
   return true;
+}
+
+/**
+ * {@link extendTrajectory} for a diagonal metric, with the same arithmetic in fewer
+ * passes over the slab: the second half-kick of each leapfrog step writes the new
+ * momentum and velocity straight into the slot where the point is kept (so nothing is
+ * copied; the next step's first half reads them there) and makes the point's level-1
+ * and level-2 merges in the same pass. The end point's own momentum and velocity are
+ * written by the last step only.
+ */
+function extendDiagonal(
+  ws: NutsWorkspace,
+  depth: number,
+  point: PhasePoint,
+  at: EndOffsets,
+  eps: number,
+  farV: number,
+): boolean {
+  const target = ws.target!;
+  const { slab, startPAt, startVAt, endPAt, endVAt, rhoFirstAt, energy } = ws;
+  const n = ws.dim;
+  const half = ws.halfAt;
+  const mass = ws.inverseMassAt;
+  const count = 1 << depth;
+  let p = at.p;
+  for (let j = 0; j < count; j++) {
+    slabKickDrift(slab, n, p, at.g, mass, at.q, half, eps);
+    point.logDensity = target.logDensityGrad(point.position, point.gradient);
+    const last = j === count - 1;
+    if ((j & 1) === 0 && !last) {
+      const t = j === 0 ? depth : trailingZeros(j);
+      p = startPAt[t];
+      point.kinetic = 0.5 * slabKick(slab, n, half, at.g, mass, eps, p, startVAt[t]);
+      if (!acceptPoint(ws, point)) return false;
+      continue;
+    }
+    const m = fillSlabMerges(ws, j, depth, last, farV);
+    if (last) {
+      const held = kickMerging(ws, at.g, eps, at.p, at.v, m + 1, ws.rhoAt);
+      point.kinetic = 0.5 * energy.twiceKinetic;
+      if (!acceptPoint(ws, point)) return false;
+      if (held < m) return false;
+      ws.persists = held === m + 1;
+      return true;
+    }
+    p = endPAt[m];
+    const held = kickMerging(ws, at.g, eps, p, endVAt[m], m, rhoFirstAt[m]);
+    point.kinetic = 0.5 * energy.twiceKinetic;
+    if (!acceptPoint(ws, point)) return false;
+    if (held < m) return false;
+    if (m > 2) swapSums(ws, m);
+  }
+  return true;
+}
+
+/**
+ * The second half-kick fused with the `count` merges ending at the new point (levels 1
+ * and 2 in the kick's pass, further levels by one pass each). The last level's sum goes
+ * to `out` for count ≤ 2, else it is left at that level's `rhoFirst`. Returns how many
+ * levels pass, from level 1 up.
+ */
+function kickMerging(ws: NutsWorkspace, g: number, eps: number, pOut: number, vOut: number, count: number, out: number): number {
+  const { slab, slabMerges, energy } = ws;
+  const n = ws.dim;
+  if (count === 1) {
+    return slabKickMergePoint(slab, n, ws.halfAt, g, ws.inverseMassAt, eps, pOut, vOut, energy, slabMerges[0], out);
+  }
+  const held = slabKickMergePair(slab, n, ws.halfAt, g, ws.inverseMassAt, eps, pOut, vOut, energy, slabMerges[0], slabMerges[1], count === 2 ? out : ws.scratchAt);
+  if (count === 2 || held < 2) return held;
+  let second = ws.scratchAt;
+  for (let k = 2; k < count; k++) {
+    const l = slabMerges[k];
+    if (!slabMergeAcross(slab, n, l, second, vOut)) return k;
+    second = l.rhoFirst;
+  }
+  return count;
+}
+
+/**
+ * Counts a new trajectory point and checks it: false when it diverged (energy error
+ * above the threshold or not finite); otherwise adds its acceptance statistic and makes
+ * the multinomial draw within the subtree by weighted reservoir sampling (the point is
+ * kept with probability weight / (weight of the subtree so far)).
+ */
+function acceptPoint(ws: NutsWorkspace, point: PhasePoint): boolean {
+  ws.leapfrogSteps += 1;
+  const energyError = point.kinetic - point.logDensity - ws.h0;
+  if (!(energyError <= divergenceThreshold)) {
+    ws.divergent = true;
+    return false;
+  }
+  ws.acceptanceSum += energyError > 0 ? Math.exp(-energyError) : 1;
+  const logWeight = -energyError;
+  const total = logAddExp(ws.subtreeLogWeight, logWeight);
+  ws.subtreeLogWeight = total;
+  if (logWeight >= total || ws.rng!.uniform() < Math.exp(logWeight - total)) {
+    takeSample(point, ws.candidate);
+  }
+  return true;
+}
+
+/**
+ * Points `ws.merges` at the inputs of the merges ending at point j (odd, or the last):
+ * levels 1 … m of the subtree (m = tz(j + 1)) and, for the last point, the merge of the
+ * old trajectory with the whole subtree at index m. Returns m.
+ */
+function fillMerges(ws: NutsWorkspace, j: number, depth: number, last: boolean, farVelocity: Float64Array): number {
+  const { startP, startV, endP, endV, rhoFirst, merges } = ws;
+  const m = trailingZeros(j + 1);
+  for (let k = 1; k <= m; k++) {
+    const l = merges[k - 1];
+    const first = j + 1 - (1 << k);
+    const t = first === 0 ? depth : trailingZeros(first);
+    l.vFirstStart = startV[t];
+    if (k === 1) {
+      l.rhoFirst = startP[t];
+    } else {
+      l.rhoFirst = rhoFirst[k - 1];
+      l.pFirstEnd = endP[k - 1];
+      l.vFirstEnd = endV[k - 1];
+      l.pSecondStart = startP[k - 1];
+      l.vSecondStart = startV[k - 1];
+    }
+  }
+  if (last) {
+    const l = merges[m];
+    l.rhoFirst = ws.rho;
+    l.vFirstStart = farVelocity;
+    l.pFirstEnd = ws.nearP;
+    l.vFirstEnd = ws.nearV;
+    l.pSecondStart = startP[depth];
+    l.vSecondStart = startV[depth];
+  }
+  return m;
+}
+
+/** {@link fillMerges} with slab offsets, into `ws.slabMerges`. */
+function fillSlabMerges(ws: NutsWorkspace, j: number, depth: number, last: boolean, farV: number): number {
+  const { startPAt, startVAt, endPAt, endVAt, rhoFirstAt, slabMerges } = ws;
+  const m = trailingZeros(j + 1);
+  for (let k = 1; k <= m; k++) {
+    const l = slabMerges[k - 1];
+    const first = j + 1 - (1 << k);
+    const t = first === 0 ? depth : trailingZeros(first);
+    l.vFirstStart = startVAt[t];
+    if (k === 1) {
+      l.rhoFirst = startPAt[t];
+    } else {
+      l.rhoFirst = rhoFirstAt[k - 1];
+      l.pFirstEnd = endPAt[k - 1];
+      l.vFirstEnd = endVAt[k - 1];
+      l.pSecondStart = startPAt[k - 1];
+      l.vSecondStart = startVAt[k - 1];
+    }
+  }
+  if (last) {
+    const l = slabMerges[m];
+    l.rhoFirst = ws.rhoAt;
+    l.vFirstStart = farV;
+    l.pFirstEnd = ws.nearPAt;
+    l.vFirstEnd = ws.nearVAt;
+    l.pSecondStart = startPAt[depth];
+    l.vSecondStart = startVAt[depth];
+  }
+  return m;
+}
+
+/**
+ * After a merge chain of m > 2 levels its sum is in rhoFirst[m − 1] (used up): swap
+ * the slots m − 1 and m (views and offsets alike).
+ */
+function swapSums(ws: NutsWorkspace, m: number): void {
+  const { rhoFirst, rhoFirstAt } = ws;
+  const t = rhoFirst[m];
+  rhoFirst[m] = rhoFirst[m - 1];
+  rhoFirst[m - 1] = t;
+  const o = rhoFirstAt[m];
+  rhoFirstAt[m] = rhoFirstAt[m - 1];
+  rhoFirstAt[m - 1] = o;
 }
 
 /**
@@ -247,6 +475,7 @@ export function nutsTransition(
   ws.leapfrogSteps = 0;
   ws.acceptanceSum = 0;
   ws.divergent = false;
+  if (metric.kind === 'diagonal') ws.slab.set(metric.inverseMass, ws.inverseMassAt);
 
   const start = ws.backward;
   start.position.set(current.position);
@@ -269,7 +498,15 @@ export function nutsTransition(
     ws.nearP.set(end.momentum);
     ws.nearV.set(end.velocity);
     ws.subtreeLogWeight = -Infinity;
-    const valid = extendTrajectory(ws, depth, end, goForward ? stepSize : -stepSize, other.velocity);
+    const valid = extendTrajectory(
+      ws,
+      depth,
+      end,
+      goForward ? ws.forwardAt : ws.backwardAt,
+      goForward ? stepSize : -stepSize,
+      other,
+      goForward ? ws.backwardAt : ws.forwardAt,
+    );
     treeDepth = depth + 1;
     if (!valid) break;
 

@@ -208,3 +208,174 @@ function mergePointAndPair(l1: MergeInputs, l2: MergeInputs, p: Float64Array, v:
   if (!(a1 > 0 && b1 > 0)) return 0;
   return a20 > 0 && b20 > 0 && a21 > 0 && b21 > 0 && a22 > 0 && b22 > 0 ? 2 : 1;
 }
+
+/**
+ * Offsets (into a slab, see leapfrog.ts) of what one merge needs; the slab form of
+ * {@link MergeInputs}.
+ */
+export interface SlabMerge {
+  rhoFirst: number;
+  vFirstStart: number;
+  pFirstEnd: number;
+  vFirstEnd: number;
+  pSecondStart: number;
+  vSecondStart: number;
+}
+
+/** Merge offsets, all 0 until set. */
+export function createSlabMerge(): SlabMerge {
+  return { rhoFirst: 0, vFirstStart: 0, pFirstEnd: 0, vFirstEnd: 0, pSecondStart: 0, vSecondStart: 0 };
+}
+
+/** Twice the kinetic energy computed by a fused kick. */
+export interface KickEnergy {
+  twiceKinetic: number;
+}
+
+/**
+ * The second half-kick of a leapfrog step for a diagonal metric on a slab (as
+ * `slabKick` in leapfrog.ts, writing p, v at `pOut`, `vOut` and pᵀv into
+ * `energy.twiceKinetic`) fused with the level-1 merge of the new point with the point
+ * before it (as {@link mergeChain} with one level): the summed momentum goes to `out`.
+ * Returns 1 when the merge passes its checks, else 0.
+ */
+export function slabKickMergePoint(
+  s: Float64Array,
+  n: number,
+  half: number,
+  g: number,
+  m: number,
+  stepSize: number,
+  pOut: number,
+  vOut: number,
+  energy: KickEnergy,
+  l1: SlabMerge,
+  out: number,
+): number {
+  const h = 0.5 * stepSize;
+  const rho1 = l1.rhoFirst;
+  const vfs1 = l1.vFirstStart;
+  let twiceKinetic = 0;
+  let a1 = 0;
+  let b1 = 0;
+  for (let i = 0; i < n; i++) {
+    const pi = s[half + i] + h * s[g + i];
+    const vi = s[m + i] * pi;
+    s[pOut + i] = pi;
+    s[vOut + i] = vi;
+    twiceKinetic += pi * vi;
+    const s1 = s[rho1 + i] + pi;
+    s[out + i] = s1;
+    a1 += s1 * s[vfs1 + i];
+    b1 += s1 * vi;
+  }
+  energy.twiceKinetic = twiceKinetic;
+  return a1 > 0 && b1 > 0 ? 1 : 0;
+}
+
+/**
+ * As {@link slabKickMergePoint}, fused with levels 1 and 2 (the level-2 merge has all
+ * three checks of {@link mergeSegments}); the level-2 sum goes to `out`. Returns how
+ * many of the two levels pass, from level 1 up.
+ */
+export function slabKickMergePair(
+  s: Float64Array,
+  n: number,
+  half: number,
+  g: number,
+  m: number,
+  stepSize: number,
+  pOut: number,
+  vOut: number,
+  energy: KickEnergy,
+  l1: SlabMerge,
+  l2: SlabMerge,
+  out: number,
+): number {
+  const h = 0.5 * stepSize;
+  const rho1 = l1.rhoFirst;
+  const vfs1 = l1.vFirstStart;
+  const rho2 = l2.rhoFirst;
+  const vfs2 = l2.vFirstStart;
+  const pfe2 = l2.pFirstEnd;
+  const vfe2 = l2.vFirstEnd;
+  const pss2 = l2.pSecondStart;
+  const vss2 = l2.vSecondStart;
+  let twiceKinetic = 0;
+  let a1 = 0;
+  let b1 = 0;
+  let a20 = 0;
+  let b20 = 0;
+  let a21 = 0;
+  let b21 = 0;
+  let a22 = 0;
+  let b22 = 0;
+  for (let i = 0; i < n; i++) {
+    const pi = s[half + i] + h * s[g + i];
+    const vi = s[m + i] * pi;
+    s[pOut + i] = pi;
+    s[vOut + i] = vi;
+    twiceKinetic += pi * vi;
+    const s1 = s[rho1 + i] + pi;
+    a1 += s1 * s[vfs1 + i];
+    b1 += s1 * vi;
+    const f2 = s[rho2 + i];
+    const s2 = f2 + s1;
+    s[out + i] = s2;
+    const w2 = s[vfs2 + i];
+    a20 += s2 * w2;
+    b20 += s2 * vi;
+    const e21 = f2 + s[pss2 + i];
+    a21 += e21 * w2;
+    b21 += e21 * s[vss2 + i];
+    const e22 = s1 + s[pfe2 + i];
+    a22 += e22 * s[vfe2 + i];
+    b22 += e22 * vi;
+  }
+  energy.twiceKinetic = twiceKinetic;
+  if (!(a1 > 0 && b1 > 0)) return 0;
+  return a20 > 0 && b20 > 0 && a21 > 0 && b21 > 0 && a22 > 0 && b22 > 0 ? 2 : 1;
+}
+
+/**
+ * {@link mergeSegments} with all checks, on a slab: the first segment's summed momentum
+ * at `rhoFirst` becomes the merged sum; the second's is at `rhoSecond`, its last
+ * velocity at `vSecondEnd`.
+ */
+export function slabMergeAcross(
+  s: Float64Array,
+  n: number,
+  l: SlabMerge,
+  rhoSecond: number,
+  vSecondEnd: number,
+): boolean {
+  const rf = l.rhoFirst;
+  const vfs = l.vFirstStart;
+  const pfe = l.pFirstEnd;
+  const vfe = l.vFirstEnd;
+  const pss = l.pSecondStart;
+  const vss = l.vSecondStart;
+  let a0 = 0;
+  let b0 = 0;
+  let a1 = 0;
+  let b1 = 0;
+  let a2 = 0;
+  let b2 = 0;
+  for (let i = 0; i < n; i++) {
+    const r1 = s[rf + i];
+    const r2 = s[rhoSecond + i];
+    const r = r1 + r2;
+    s[rf + i] = r;
+    const w = s[vfs + i];
+    const vse = s[vSecondEnd + i];
+    a0 += r * w;
+    b0 += r * vse;
+    const e1 = r1 + s[pss + i];
+    a1 += e1 * w;
+    b1 += e1 * s[vss + i];
+    const e2 = r2 + s[pfe + i];
+    a2 += e2 * s[vfe + i];
+    b2 += e2 * vse;
+  }
+  return a0 > 0 && b0 > 0 && a1 > 0 && b1 > 0 && a2 > 0 && b2 > 0;
+}
