@@ -233,12 +233,20 @@ export async function buildPlanetModel(system: PreparedSystem): Promise<PlanetSy
     for (const d of declared) for (let k = 0; k < d.centre.length; k++, c++) d.centre[k] += d.scale[k] * u[c];
   };
 
+  const startCentres = declared.map((d) => Float64Array.from(d.centre));
   if (system.searchMode) {
     const grad = new Float64Array(dim);
     const start = compiled.logDensityGrad(new Float64Array(dim), grad);
     if (Number.isFinite(start)) {
       const mode = findMode(compiled, { init: new Float64Array(dim), maxIterations: 400 });
-      if (Number.isFinite(mode.logDensity) && mode.logDensity > start) moveCentres(mode.position);
+      if (Number.isFinite(mode.logDensity) && mode.logDensity > start) {
+        moveCentres(mode.position);
+        // An eccentricity prior with an infinite density at e = 0 (a beta with α < 1)
+        // puts the mode on that point; such vectors keep their starting centre.
+        declared.forEach((d, n) => {
+          if (d.entry.size === 2 && Math.hypot(d.centre[0], d.centre[1]) < 1e-3) d.centre.set(startCentres[n]);
+        });
+      }
       compiled = await compile();
     }
   }
@@ -372,7 +380,10 @@ function rescaleByCurvature(target: CompiledModel, declared: Declared[], dim: nu
       }
       if (!(H < 0) || !Number.isFinite(H)) continue;
       const s = d.scale[k] / Math.sqrt(-H);
-      const floor = 1e-14 * Math.max(1, Math.abs(d.centre[k]));
+      // Real-line coordinates (periods, times, offsets) may be very narrow; bounded ones
+      // are kept at or above 1e-4 (1e-2 for eccentricity vectors), so that a singular
+      // prior at a boundary or at e = 0 cannot shrink them to nothing.
+      const floor = d.base.kind === 'real' ? 1e-14 * Math.max(1, Math.abs(d.centre[k])) : d.entry.size === 2 ? 1e-2 : 1e-4;
       d.scale[k] = Math.min(Math.max(s, floor), d.maxScale);
     }
   }
