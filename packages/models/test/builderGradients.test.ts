@@ -47,7 +47,7 @@ describe('builder gradients', () => {
       ],
       star: { mass: 0.92, massUncertainty: 0.04 },
       trend: 'quadratic',
-      priors: { eccentricity_c: { beta: [0.867, 3.03] } },
+      priors: { eccentricity_c: { beta: [0.867, 3.03] }, eccentricity_b: { uniform: [0, 0.6] } },
     });
     for (const x of positions(model, 'grad-rv-x')) expectGradient(model, x);
     // Near-circular orbits: e ≈ 1e-8 for both planets.

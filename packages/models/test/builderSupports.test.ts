@@ -112,6 +112,23 @@ describe('unit disk support', () => {
   });
 });
 
+describe('disk of radius below 1 (an eccentricity cap)', () => {
+  it('has area π R² under its map, and round trips', () => {
+    const R = Math.sqrt(0.5);
+    const t = unitDisk(R).bind(2);
+    let sum = 0;
+    const dr = 1e-4;
+    const out = new Float64Array(2);
+    for (let r = dr / 2; r < 25; r += dr) sum += 2 * Math.PI * r * Math.exp(t.forward(Float64Array.of(r, 0), 0, out, 0)) * dr;
+    expect(sum).toBeCloseTo(Math.PI * R * R, 6);
+    const u = new Float64Array(2);
+    expect(t.inverse([0.4, -0.5], 0, u, 0)).toBe(true);
+    t.forward(u, 0, out, 0);
+    expect(out[0]).toBeCloseTo(0.4, 12);
+    expect(t.inverse([0.6, 0.6], 0, u, 0)).toBe(false); // e = 0.72 > 0.5
+  });
+});
+
 describe('centred support', () => {
   it('maps u to the base at centre + scale·u, adds ln scale, and chains gradients', () => {
     const base = supports.interval(-2, 5);

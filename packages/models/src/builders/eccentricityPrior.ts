@@ -23,8 +23,9 @@ export function eccentricityDiskPrior(eccentricity: ScalarPrior = priors.uniform
   return {
     kind: 'eccentricityDisk',
     description: `eccentricity ~ ${p.description}, omega uniform`,
-    lower: -1,
-    upper: 1,
+    // The largest eccentricity the prior allows: the disk support takes √upper as its radius.
+    lower: 0,
+    upper: Math.min(1, p.upper),
     proper: p.proper,
     supportKinds: [UNIT_DISK_KIND],
     length: 2,

@@ -561,8 +561,8 @@ function applyUserSettings(entries: PlanEntry[], system: PreparedSystem): void {
       throw new FitSettingsError(`priors.${key}`, prior.description, `no prior: planet ${key.slice('eccentricity_'.length)} is circular (set eccentric: true to fit its eccentricity)`);
     }
     if (e.size === 2) {
-      if (prior.lower > 0 || prior.upper < 1) {
-        throw new FitSettingsError(`priors.${key}`, prior.description, 'a prior on the eccentricity covering [0, 1)');
+      if (prior.lower > 0 || !(prior.upper > 0)) {
+        throw new FitSettingsError(`priors.${key}`, prior.description, 'a prior on the eccentricity whose support starts at 0 (it may end below 1)');
       }
       entries[i] = { ...e, prior: eccentricityDiskPrior(prior), note: `eccentricity ~ ${prior.description} (given), omega uniform` };
     } else if (e.durationScaled) {

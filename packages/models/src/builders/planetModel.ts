@@ -109,7 +109,8 @@ function centralValue(e: PlanEntry, x: number, phi: Float64Array): number {
 
 /** The base support of a sampled entry: the natural bounds intersected with the prior's. */
 function baseSupport(e: PlanEntry): Support {
-  if (e.size === 2) return unitDisk();
+  // An eccentricity prior ending below 1 sets the disk's radius (√e_max).
+  if (e.size === 2) return unitDisk(Math.sqrt(Math.min(1, e.prior.upper)));
   if (e.impactOf) return supports.interval(-1, 1);
   const prior = e.prior as ScalarPrior;
   const lo = Math.max(e.lower, prior.lower);
@@ -340,7 +341,14 @@ export async function buildPlanetModel(system: PreparedSystem): Promise<PlanetSy
       try {
         return compiled.unconstrain(named);
       } catch (e) {
-        throw new FitSettingsError('values', JSON.stringify(values), (e as Error).message);
+        const err = e as { field?: string; value?: unknown; expected?: string; message: string };
+        if (typeof err.field !== 'string') throw e;
+        // Name the physical parameter, not the sampled coordinate behind it.
+        const declaredKey = err.field.replace(/^values\./, '');
+        const d = declared.find((x) => x.name === declaredKey);
+        const field = d ? `values.${d.entry.columns.join(', ')}` : err.field;
+        const how = d?.entry.impactOf ? ' (sampled as b/(1 + k))' : d?.entry.durationScaled ? ' (sampled divided by the duration factor s)' : '';
+        throw new FitSettingsError(field, err.value, `${err.expected ?? err.message}${how}`);
       }
     },
     physicalAt,

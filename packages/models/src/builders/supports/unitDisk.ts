@@ -54,20 +54,24 @@ function curvature(r: number): number {
 class UnitDiskTransform implements Transform {
   readonly constrainedLength = 2;
   readonly unconstrainedLength = 2;
+  private readonly logArea: number;
+  constructor(private readonly radius: number) {
+    this.logArea = 2 * Math.log(radius);
+  }
 
   forward(u: Float64Array, uAt: number, theta: Float64Array, thetaAt: number): number {
     const a = u[uAt];
     const b = u[uAt + 1];
     const r = Math.hypot(a, b);
     const t = ratio(r);
-    theta[thetaAt] = t * a;
-    theta[thetaAt + 1] = t * b;
-    return -2 * logCosh(r) + Math.log(t);
+    theta[thetaAt] = this.radius * t * a;
+    theta[thetaAt + 1] = this.radius * t * b;
+    return -2 * logCosh(r) + Math.log(t) + this.logArea;
   }
 
   inverse(theta: ArrayLike<number>, thetaAt: number, u: Float64Array, uAt: number): boolean {
-    const x = theta[thetaAt];
-    const y = theta[thetaAt + 1];
+    const x = theta[thetaAt] / this.radius;
+    const y = theta[thetaAt + 1] / this.radius;
     if (!Number.isFinite(x) || !Number.isFinite(y)) return false;
     const rho = Math.hypot(x, y);
     if (!(rho < 1)) return false;
@@ -92,8 +96,8 @@ class UnitDiskTransform implements Transform {
     const r = Math.hypot(a, b);
     const t = ratio(r);
     const q = curvature(r);
-    const gx = gTheta[gThetaAt];
-    const gy = gTheta[gThetaAt + 1];
+    const gx = this.radius * gTheta[gThetaAt];
+    const gy = this.radius * gTheta[gThetaAt + 1];
     const dot = a * gx + b * gy;
     const radial = -2 * t + q / t;
     gU[gUAt] = t * gx + q * a * dot + radial * a;
@@ -102,21 +106,23 @@ class UnitDiskTransform implements Transform {
 }
 
 /**
- * The open unit disk for a parameter of size 2 (see the file notes for the map). Its
- * prior must be a vector prior for this kind, such as {@link eccentricityDiskPrior}.
+ * The open disk of the given radius (default 1) for a parameter of size 2: the map of
+ * the file notes, scaled by the radius (log|det| gains 2 ln radius). Its prior must be a
+ * vector prior for this kind, such as {@link eccentricityDiskPrior}.
  */
-export function unitDisk(): Support {
+export function unitDisk(radius = 1): Support {
+  if (!(radius > 0 && radius <= 1)) throw new RangeError(`unitDisk: radius = ${radius}: expected a number in (0, 1]`);
   return {
     kind: UNIT_DISK_KIND,
-    description: 'unitDisk()',
-    lower: -1,
-    upper: 1,
+    description: radius === 1 ? 'unitDisk()' : `unitDisk(${radius})`,
+    lower: -radius,
+    upper: radius,
     joint: true,
     minLength: 2,
     unconstrainedLength: (n) => n,
     bind: (n) => {
       if (n !== 2) throw new RangeError(`unitDisk: size = ${n}: expected 2`);
-      return new UnitDiskTransform();
+      return new UnitDiskTransform(radius);
     },
     coordinateName: (name, _n, _scalar, k) => `${name}.u[${k}]`,
   };
