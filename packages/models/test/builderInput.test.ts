@@ -11,8 +11,8 @@ import { ORIGIN, lightCurve, rvData, transitWindows, twoPlanets } from './builde
 const rv = rvData(30, 'input-rv');
 const planets = [{ label: 'b', period: 4.2317 }];
 
-function mutated<T extends Record<string, unknown>>(base: T, field: keyof T, row: number, value: unknown): T {
-  const column = Array.from(base[field] as ArrayLike<unknown>);
+function mutated(base: object, field: string, row: number, value: unknown): Record<string, unknown> {
+  const column = Array.from((base as Record<string, ArrayLike<unknown>>)[field]);
   column[row] = value;
   return { ...base, [field]: column };
 }
@@ -29,12 +29,12 @@ async function failure(p: Promise<unknown>): Promise<Error> {
 describe('radial-velocity input', () => {
   it('names the row and field of a bad value, error or instrument label', async () => {
     const cases: [Record<string, unknown>, RegExp][] = [
-      [mutated(rv as never, 'times', 3, Number.NaN), /^rv\.times\[3\] = NaN: expected a finite number \(days\)/],
-      [mutated(rv as never, 'values', 7, Infinity), /^rv\.values\[7\] = Infinity: expected a finite number \(m\/s\)/],
-      [mutated(rv as never, 'errors', 17, 0), /^rv\.errors\[17\] = 0: expected a finite positive number \(m\/s\)/],
-      [mutated(rv as never, 'errors', 2, -1), /^rv\.errors\[2\] = -1/],
-      [{ ...mutated(rv as never, 'instrument', 5, 'east'), instruments: ['north', 'south'] }, /^rv\.instrument\[5\] = "east": expected one of the instruments north, south/],
-      [mutated(rv as never, 'instrument', 4, 'two words'), /^rv\.instrument\[4\] = "two words": expected a label of letters, digits and underscores/],
+      [mutated(rv, 'times', 3, Number.NaN), /^rv\.times\[3\] = NaN: expected a finite number \(days\)/],
+      [mutated(rv, 'values', 7, Infinity), /^rv\.values\[7\] = Infinity: expected a finite number \(m\/s\)/],
+      [mutated(rv, 'errors', 17, 0), /^rv\.errors\[17\] = 0: expected a finite positive number \(m\/s\)/],
+      [mutated(rv, 'errors', 2, -1), /^rv\.errors\[2\] = -1/],
+      [{ ...mutated(rv, 'instrument', 5, 'east'), instruments: ['north', 'south'] }, /^rv\.instrument\[5\] = "east": expected one of the instruments north, south/],
+      [mutated(rv, 'instrument', 4, 'two words'), /^rv\.instrument\[4\] = "two words": expected a label of letters, digits and underscores/],
     ];
     for (const [data, pattern] of cases) {
       const e = await failure(createRvModel({ rv: data as never, planets }));
