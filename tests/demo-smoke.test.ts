@@ -75,7 +75,7 @@ describe('demo at small settings', () => {
     expect(run.outputs!.values[1]).toEqual(result.run.outputs!.values[1]);
   });
 
-  it('writes a report with trace, rank, pair and three fit plots', async () => {
+  it('writes a report with trace, rank, pair and four fit plots', async () => {
     const html = readFileSync(result.reportPath, 'utf8');
     const count = (kind: string): number => html.split(`data-plot="${kind}"`).length - 1;
     const model = await buildDemoModel(null);
@@ -84,9 +84,9 @@ describe('demo at small settings', () => {
     expect(count('trace')).toBe(shown);
     expect(count('rank')).toBe(shown);
     expect(count('pair')).toBe(1);
-    expect(count('fit')).toBe(3);
-    expect(html).toContain('Light curve folded on the transits of planet b');
-    expect(html).toContain('Radial velocities folded on planet c');
+    expect(count('fit')).toBe(4); // velocities against time, folded on b and on c, the transit of b
+    expect(html).toContain('Transit of planet b');
+    expect(html).toContain('Radial velocity of planet c, folded');
   });
 
   it('rejects bad options naming the option, and leaves a foreign folder alone', async () => {

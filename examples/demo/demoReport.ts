@@ -5,7 +5,7 @@
  * phase-folded fit panels passed in.
  */
 import type { RunResult } from '@apsis/core';
-import type { FitPanel, ReportInput } from '@apsis/report';
+import type { FitPanel, PlotLimits, ReportInput } from '@apsis/report';
 import type { PlanetSystemModel } from '@apsis/models';
 
 /** Derived quantities shown in the report beside the sampled parameters. */
@@ -45,7 +45,13 @@ export interface DemoReportSettings {
 }
 
 /** The report input of a finished demo run. */
-export function demoReportInput(model: PlanetSystemModel, result: RunResult, settings: DemoReportSettings, fits: readonly FitPanel[]): ReportInput {
+export function demoReportInput(
+  model: PlanetSystemModel,
+  result: RunResult,
+  settings: DemoReportSettings,
+  fits: readonly FitPanel[],
+  limits: PlotLimits = {},
+): ReportInput {
   const outputs = result.outputs;
   if (!outputs) throw new Error('demo report: the run has no recorded outputs (constrained values)');
   const names = reportColumns(model);
@@ -87,5 +93,6 @@ export function demoReportInput(model: PlanetSystemModel, result: RunResult, set
     })),
     pairs: pairQuantities.filter((n) => names.includes(n)),
     fits: [...fits],
+    limits,
   };
 }

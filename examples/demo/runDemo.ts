@@ -16,10 +16,10 @@ import {
   type ConvergenceVerdict,
   type SummaryTable,
 } from '@apsis/diagnostics';
+import { fitPanels } from '@apsis/models';
 import { writeReport } from '@apsis/report';
 import { buildDemoModel } from './demoModel.js';
 import { demoReportInput } from './demoReport.js';
-import { demoFitPanels } from './fitPanels.js';
 import { demoSections, formatParameterTable, TABLE_QUANTILES } from './parameterTable.js';
 import { photometer, planets, spectrographs, star } from './scenario.js';
 import { simulateObservations } from './simulateObservations.js';
@@ -28,6 +28,9 @@ import { verdictText } from './verdictText.js';
 
 /** The repository root (the demo writes below it by default). */
 const repositoryRoot = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..', '..');
+
+/** Points per model curve of the velocities-against-time panel. */
+const TIME_SERIES_POINTS = 4000;
 
 /** The label stored in the demo's run folders; only folders with it are replaced. */
 export const DEMO_RUN_LABEL = 'apsis demo: Orvanne joint RV + transit fit';
@@ -206,7 +209,12 @@ export async function main(options: DemoOptions = {}): Promise<DemoResult> {
   say(table);
   say(verdictText(summary, health, verdict));
 
-  const fits = demoFitPanels(model, run, observations);
+  // Data and model (`fitPanels` of @apsis/models; its first panel is the velocities
+  // against time, then each planet's folded velocities, then the folded transit): 40
+  // posterior model draws per folded panel; the 470-day time series needs finer curves
+  // (about 8 points per day for a 4.3-day orbit), so it gets 6 draws of 4000 points.
+  const [timeSeries] = fitPanels(model, run, { maxDraws: 6, curvePoints: TIME_SERIES_POINTS });
+  const fits = [timeSeries, ...fitPanels(model, run).slice(1)];
   const input = demoReportInput(
     model,
     run,
@@ -227,6 +235,7 @@ export async function main(options: DemoOptions = {}): Promise<DemoResult> {
       ],
     },
     fits,
+    { curvePoints: TIME_SERIES_POINTS },
   );
   const reportPath = await writeReport(input, outDir);
   say(`report: ${where(reportPath)}`);
