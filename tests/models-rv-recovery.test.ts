@@ -99,7 +99,14 @@ async function recover(points: number, span: number, chains: number, warmup: num
     const sorted = perChain.flatMap((v) => Array.from(v)).sort((a, b) => a - b);
     const lo = sorted[Math.floor(0.005 * sorted.length)];
     const hi = sorted[Math.ceil(0.995 * sorted.length) - 1];
-    if (!(lo < known[name] && known[name] < hi)) missed.push(`${name}: ${known[name]} outside [${lo}, ${hi}]`);
+    let t = known[name];
+    if (name.startsWith('periastronTime_')) {
+      // Periastron passages repeat every period: compare the passage nearest the median.
+      const P = known[name.replace('periastronTime_', 'period_')];
+      const median = sorted[Math.floor(sorted.length / 2)];
+      t += P * Math.round((median - t) / P);
+    }
+    if (!(lo < t && t < hi)) missed.push(`${name}: ${t} outside [${lo}, ${hi}]`);
   }
   expect(Object.keys(known).every((n) => names.includes(n))).toBe(true);
   expect(missed).toEqual([]);

@@ -4,8 +4,10 @@
  *
  * Formulas (units in the column table of docs/fitting-radial-velocities.md):
  * - e = h² + k², ω = atan2(k, h) for (h, k) = (√e cos ω, √e sin ω), in degrees;
- * - time of periastron tp = tc − P M_c/(2π), M_c the mean anomaly at conjunction
- *   (`orbit/epochs.ts`);
+ * - time of periastron tp = tc − P M_c/(2π) + n P, M_c the mean anomaly at conjunction
+ *   (`orbit/epochs.ts`), with the whole number n that puts tp nearest to the
+ *   periastron time at the model's centre (its posterior mode), so that draws do not
+ *   jump by a period where M_c crosses ±π;
  * - planet mass from K by the mass function (m sin i)³/(M_* + m)² =
  *   P K³ (1 − e²)^(3/2)/(2π G M_sun) (Lovis & Fischer 2010, eq. 1, inverted): the
  *   minimum mass with sin i = 1, the true mass with the transit's inclination;
@@ -72,6 +74,8 @@ export interface OutputColumns {
   readonly units: Readonly<Record<string, string>>;
   /** Writes every column at the physical vector Φ into `out`. */
   write(phi: Float64Array, out: Float64Array): void;
+  /** Takes the periastron times at Φ as the references that choose tp's branch. */
+  anchor(phi: Float64Array): void;
 }
 
 /** Builds the column list and its writer for a plan. */
@@ -95,6 +99,7 @@ export function outputColumns(system: PreparedSystem, plan: ParameterPlan): Outp
     else e.columns.forEach((c, k) => column(c, e.unit, (phi) => phi[e.slot + k]));
   }
 
+  const tpReference = new Float64Array(system.planets.length).fill(NaN);
   const starMass = (phi: Float64Array): number => phi[layout.starMass];
   const starRadius = (phi: Float64Array): number => phi[layout.starRadius];
   const hasMass = layout.starMass >= 0;
@@ -126,7 +131,12 @@ export function outputColumns(system: PreparedSystem, plan: ParameterPlan): Outp
     if (eccentric) {
       column(`eccentricity_${L}`, '', ecc);
       column(`omega_${L}`, 'deg', (phi) => omega(phi) * DEG);
-      column(`periastronTime_${L}`, 'd', (phi) => phi[layout.tc[i]] - (P(phi) * conjunctionMeanAnomalyUnchecked(ecc(phi), omega(phi))) / (2 * Math.PI));
+      column(`periastronTime_${L}`, 'd', (phi) => {
+        const period = P(phi);
+        const tp = phi[layout.tc[i]] - (period * conjunctionMeanAnomalyUnchecked(ecc(phi), omega(phi))) / (2 * Math.PI);
+        const ref = tpReference[i];
+        return Number.isFinite(ref) ? tp + period * Math.round((ref - tp) / period) : tp;
+      });
     }
     if (hasMass) column(`semiMajorAxis_${L}`, 'au', (phi) => semiMajorAxisAuOf(P(phi), starMass(phi) + planetMass(phi)));
     if (inRv && hasMass) {
@@ -177,11 +187,18 @@ export function outputColumns(system: PreparedSystem, plan: ParameterPlan): Outp
     }
   }
 
+  const tpColumns = system.planets.map((p) => names.indexOf(`periastronTime_${p.label}`));
   return {
     names,
     units,
     write(phi, out) {
       for (let c = 0; c < writers.length; c++) writers[c](phi, out, c);
+    },
+    anchor(phi) {
+      const out = new Float64Array(writers.length);
+      tpReference.fill(NaN);
+      for (let c = 0; c < writers.length; c++) writers[c](phi, out, c);
+      tpColumns.forEach((c, i) => (tpReference[i] = c >= 0 ? out[c] : NaN));
     },
   };
 }

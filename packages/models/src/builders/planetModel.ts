@@ -286,6 +286,7 @@ export async function buildPlanetModel(system: PreparedSystem): Promise<PlanetSy
   const fixed: Record<string, number> = {};
   for (const e of plan.entries) if (e.fixed !== null) e.columns.forEach((c, k) => (fixed[c] = (e.fixed as number[])[k]));
   const centrePhi = physicalAt(x0);
+  columns.anchor(centrePhi);
   const parameters: ParameterSummary[] = declared.map((d) => ({
     names: d.entry.columns,
     unit: d.entry.unit,
