@@ -3,7 +3,9 @@
  * derived quantities, computed in float64 from the physical vector Φ for every draw.
  *
  * Formulas (units in the column table of docs/fitting-radial-velocities.md):
- * - e = h² + k², ω = atan2(k, h) for (h, k) = (√e cos ω, √e sin ω), in degrees;
+ * - e = h² + k², ω = atan2(k, h) for (h, k) = (√e cos ω, √e sin ω), in degrees, taken
+ *   within 180° of its value at the model's centre (so a posterior around ±180° does
+ *   not split in two);
  * - time of periastron tp = tc − P M_c/(2π) + n P, M_c the mean anomaly at conjunction
  *   (`orbit/epochs.ts`), with the whole number n that puts tp nearest to the
  *   periastron time at the model's centre (its posterior mode), so that draws do not
@@ -74,7 +76,7 @@ export interface OutputColumns {
   readonly units: Readonly<Record<string, string>>;
   /** Writes every column at the physical vector Φ into `out`. */
   write(phi: Float64Array, out: Float64Array): void;
-  /** Takes the periastron times at Φ as the references that choose tp's branch. */
+  /** Takes the periastron times and arguments of periastron at Φ as the references that choose their branches. */
   anchor(phi: Float64Array): void;
 }
 
@@ -100,6 +102,7 @@ export function outputColumns(system: PreparedSystem, plan: ParameterPlan): Outp
   }
 
   const tpReference = new Float64Array(system.planets.length).fill(NaN);
+  const omegaReference = new Float64Array(system.planets.length).fill(NaN);
   const starMass = (phi: Float64Array): number => phi[layout.starMass];
   const starRadius = (phi: Float64Array): number => phi[layout.starRadius];
   const hasMass = layout.starMass >= 0;
@@ -130,7 +133,11 @@ export function outputColumns(system: PreparedSystem, plan: ParameterPlan): Outp
 
     if (eccentric) {
       column(`eccentricity_${L}`, '', ecc);
-      column(`omega_${L}`, 'deg', (phi) => omega(phi) * DEG);
+      column(`omega_${L}`, 'deg', (phi) => {
+        const w = omega(phi) * DEG;
+        const ref = omegaReference[i];
+        return Number.isFinite(ref) ? w + 360 * Math.round((ref - w) / 360) : w;
+      });
       column(`periastronTime_${L}`, 'd', (phi) => {
         const period = P(phi);
         const tp = phi[layout.tc[i]] - (period * conjunctionMeanAnomalyUnchecked(ecc(phi), omega(phi))) / (2 * Math.PI);
@@ -188,6 +195,7 @@ export function outputColumns(system: PreparedSystem, plan: ParameterPlan): Outp
   }
 
   const tpColumns = system.planets.map((p) => names.indexOf(`periastronTime_${p.label}`));
+  const omegaColumns = system.planets.map((p) => names.indexOf(`omega_${p.label}`));
   return {
     names,
     units,
@@ -197,8 +205,10 @@ export function outputColumns(system: PreparedSystem, plan: ParameterPlan): Outp
     anchor(phi) {
       const out = new Float64Array(writers.length);
       tpReference.fill(NaN);
+      omegaReference.fill(NaN);
       for (let c = 0; c < writers.length; c++) writers[c](phi, out, c);
       tpColumns.forEach((c, i) => (tpReference[i] = c >= 0 ? out[c] : NaN));
+      omegaColumns.forEach((c, i) => (omegaReference[i] = c >= 0 ? out[c] : NaN));
     },
   };
 }
