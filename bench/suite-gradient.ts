@@ -123,7 +123,7 @@ async function measureOne(key: string, n: number, quick: boolean): Promise<OneRe
 /** Runs the gradient suite. */
 export async function run(options: SuiteOptions): Promise<SuiteResult> {
   const start = performance.now();
-  const sizes = options.quick ? [100, 1000, 10000] : [100, 1000, 10000, 100000];
+  const sizes = options.quick ? [1000, 10000] : [100, 1000, 10000, 100000];
   const figures: Figure[] = [];
   const details: string[] = [];
   const models: [string, string, string][] = [

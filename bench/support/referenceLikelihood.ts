@@ -199,9 +199,10 @@ function transitInto(aR: number, b: number, k: number, out: Float64Array, o: num
   const e = out[o + P_E];
   const sw = out[o + P_SW];
   const root = out[o + P_ROOT];
-  if (!(aR > 1) || !(k > 0) || !(b >= 0)) return false;
+  if (!(aR > 1) || !(k > 0)) return false;
+  // b may be negative (the orbit's other side of the stellar equator): only cos² i enters z.
   const ci = (b * (1 + e * sw)) / (aR * root * root);
-  if (!(ci < 1)) return false;
+  if (!(Math.abs(ci) < 1)) return false;
   const si = Math.sqrt((1 - ci) * (1 + ci));
   out[o + P_K] = k;
   out[o + P_AR] = aR;
