@@ -41,7 +41,7 @@ export interface DemoOptions {
   readonly chains?: number;
   /** Warmup iterations per chain (default 1000). */
   readonly warmup?: number;
-  /** Draws per chain after warmup (default 1500: enough for a tail ESS of 400 on the impact parameter). */
+  /** Draws per chain after warmup (default 1000). */
   readonly draws?: number;
   /** Run seed (default 20410). */
   readonly seed?: number;
@@ -137,7 +137,7 @@ export async function main(options: DemoOptions = {}): Promise<DemoResult> {
   const o = checkOptions(options);
   const chains = o.chains ?? 4;
   const warmup = o.warmup ?? 1000;
-  const draws = o.draws ?? 1500;
+  const draws = o.draws ?? 1000;
   const seed = o.seed ?? 20410;
   const quiet = o.quiet ?? false;
   const outDir = o.outDir === undefined ? path.join(repositoryRoot, 'reports', 'demo') : path.resolve(o.outDir);
