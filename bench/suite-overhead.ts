@@ -15,33 +15,41 @@
  *    (100 × 100), the same size as the gradient itself, so this "overhead" is ~100% by
  *    construction; shown for scale, without a target.
  *
- * Times are CPU seconds of this process, chains and bare gradients in alternating rounds,
- * fastest round of each kept.
+ * Times are wall-clock seconds in many short alternating blocks (a few milliseconds of
+ * chain, then as many bare gradients as the block had steps); the ratio is formed within
+ * each block and the median over blocks reported, so that load from other processes,
+ * which comes and goes on a shared machine, cancels.
  *
  * Run: npx tsx --conditions=source bench/suite-overhead.ts [--quick]
  */
 import { advanceChain, createChainState, resolveChainSettings, type Target } from '@apsis/core';
-import { cpuSeconds } from './support/cpuTime.js';
+import { wallSeconds } from './support/cpuTime.js';
 import { runIfMain, type Figure, type SuiteOptions, type SuiteResult } from './support/figures.js';
 import { autoregressiveGaussian, rotatedGaussian } from './support/gaussianTargets.js';
 
 export interface OverheadFigures {
-  /** Seconds per bare gradient call. */
+  /** Median seconds per bare gradient call. */
   readonly gradient: number;
-  /** Seconds per leapfrog step inside NUTS. */
+  /** Median seconds per leapfrog step inside NUTS. */
   readonly step: number;
+  /** Median over blocks of (step − gradient) / gradient, and its quartiles. */
+  readonly ratio: number;
+  readonly quartiles: [number, number];
   readonly stepsPerDraw: number;
   readonly steps: number;
 }
 
 /**
- * Time per leapfrog step of an adapted NUTS chain and per bare gradient call, in
- * alternating rounds of about `roundSeconds` each; fastest of `rounds`.
+ * Time per leapfrog step of an adapted NUTS chain and per bare gradient call, in many
+ * short alternating blocks (wall clock): in each block the chain runs transitions for
+ * about `blockSeconds`, then the bare gradient is called as many times as the block
+ * had leapfrog steps. The overhead ratio is taken within each block (so load that comes
+ * and goes hits both halves alike) and its median over the blocks is reported.
  */
 export function measureOverhead(
   target: Target,
   metric: 'diagonal' | 'dense',
-  options: { warmup: number; roundSeconds: number; rounds: number; seed: number },
+  options: { warmup: number; blockSeconds: number; blocks: number; seed: number },
 ): OverheadFigures {
   const dim = target.dim;
   const settings = resolveChainSettings({ warmup: options.warmup, draws: 1e9, metric });
@@ -50,50 +58,69 @@ export function measureOverhead(
   const x = Float64Array.from({ length: dim }, (_, i) => 0.1 * Math.sin(i));
   const g = new Float64Array(dim);
   let sink = 0;
-  let bestStep = Infinity;
-  let bestGradient = Infinity;
+  const ratios: number[] = [];
+  const stepTimes: number[] = [];
+  const gradientTimes: number[] = [];
   let totalSteps = 0;
   let totalDraws = 0;
-  // Warm-up of the timed code paths, then rounds.
-  for (let r = -1; r < options.rounds; r++) {
+  // The first blocks warm up the compiled code and are not counted.
+  const warm = Math.ceil(options.blocks / 10);
+  for (let b = 0; b < options.blocks + warm; b++) {
     let steps = 0;
     let draws = 0;
-    const t0 = cpuSeconds();
-    while (cpuSeconds() - t0 < options.roundSeconds) {
+    const t0 = wallSeconds();
+    while (wallSeconds() - t0 < options.blockSeconds) {
       steps += advanceChain(target, settings, state).stats.leapfrogSteps;
       draws++;
     }
-    const perStep = (cpuSeconds() - t0) / steps;
-    const calls = Math.max(100, steps);
-    const t1 = cpuSeconds();
-    for (let k = 0; k < calls; k++) {
+    const perStep = (wallSeconds() - t0) / steps;
+    const t1 = wallSeconds();
+    for (let k = 0; k < steps; k++) {
       x[k % dim] += 1e-9;
       sink += target.logDensityGrad(x, g);
     }
-    const perGradient = (cpuSeconds() - t1) / calls;
-    if (r < 0) continue;
-    bestStep = Math.min(bestStep, perStep);
-    bestGradient = Math.min(bestGradient, perGradient);
+    const perGradient = (wallSeconds() - t1) / steps;
+    if (b < warm) continue;
+    ratios.push((perStep - perGradient) / perGradient);
+    stepTimes.push(perStep);
+    gradientTimes.push(perGradient);
     totalSteps += steps;
     totalDraws += draws;
   }
   if (!Number.isFinite(sink)) throw new Error('non-finite density while timing');
-  return { gradient: bestGradient, step: bestStep, stepsPerDraw: totalSteps / totalDraws, steps: totalSteps };
+  return {
+    gradient: median(gradientTimes),
+    step: median(stepTimes),
+    ratio: median(ratios),
+    quartiles: [quantile(ratios, 0.25), quantile(ratios, 0.75)],
+    stepsPerDraw: totalSteps / totalDraws,
+    steps: totalSteps,
+  };
+}
+
+function quantile(values: readonly number[], p: number): number {
+  const s = [...values].sort((a, b) => a - b);
+  const h = (s.length - 1) * p;
+  const lo = Math.floor(h);
+  return s[lo] + (h - lo) * ((s[Math.min(lo + 1, s.length - 1)] ?? s[lo]) - s[lo]);
+}
+
+function median(values: readonly number[]): number {
+  return quantile(values, 0.5);
 }
 
 /** Runs the overhead suite. */
 export async function run(options: SuiteOptions): Promise<SuiteResult> {
   const start = performance.now();
-  const round = options.quick ? 0.25 : 0.6;
-  const rounds = options.quick ? 5 : 9;
+  const q = options.quick;
   const dense = rotatedGaussian(100, 1e4, 'apsis bench gaussian');
   const iid = autoregressiveGaussian(100, 0);
-  const honest = measureOverhead(dense.target, 'diagonal', { warmup: options.quick ? 150 : 300, roundSeconds: round, rounds, seed: 41 });
-  const shallow = measureOverhead(iid.target, 'diagonal', { warmup: 300, roundSeconds: round, rounds, seed: 42 });
-  const denseMetric = options.quick ? null : measureOverhead(dense.target, 'dense', { warmup: 600, roundSeconds: round, rounds: 5, seed: 43 });
-  const ratio = (f: OverheadFigures): number => (f.step - f.gradient) / f.gradient;
+  const honest = measureOverhead(dense.target, 'diagonal', { warmup: q ? 150 : 300, blockSeconds: 0.006, blocks: q ? 150 : 300, seed: 41 });
+  const shallow = measureOverhead(iid.target, 'diagonal', { warmup: 300, blockSeconds: 0.003, blocks: q ? 150 : 300, seed: 42 });
+  const denseMetric = q ? null : measureOverhead(dense.target, 'dense', { warmup: 400, blockSeconds: 0.006, blocks: 100, seed: 43 });
+  const ratio = (f: OverheadFigures): number => f.ratio;
   const ns = (s: number): string => `${(s * 1e9).toFixed(0)} ns`;
-  const shallowOverhead = shallow.step - shallow.gradient;
+  const shallowOverhead = shallow.ratio * shallow.gradient;
   const figures: Figure[] = [
     {
       group: 'sampler overhead per leapfrog step, d = 100',
@@ -102,7 +129,7 @@ export async function run(options: SuiteOptions): Promise<SuiteResult> {
       unit: '%',
       digits: 2,
       target: { op: '<', limit: 10 },
-      note: `step ${ns(honest.step)} vs gradient ${ns(honest.gradient)}; ${honest.stepsPerDraw.toFixed(0)} steps per draw, ${honest.steps} steps timed`,
+      note: `median of ${honest.steps} steps in short blocks: step ${ns(honest.step)} vs gradient ${ns(honest.gradient)}, quartiles of the ratio ${(100 * honest.quartiles[0]).toFixed(1)}–${(100 * honest.quartiles[1]).toFixed(1)}%; ${honest.stepsPerDraw.toFixed(0)} steps per draw`,
     },
     {
       group: 'sampler overhead per leapfrog step, d = 100',

@@ -83,3 +83,59 @@ export function interleavedBest(
   }
   return best;
 }
+
+/** What {@link pairedBlocks} measured. */
+export interface PairedTimes {
+  /** Median seconds per call of each function. */
+  readonly median: number[];
+  /** Median over blocks of (seconds per call of fns[i]) / (seconds per call of fns[0]). */
+  readonly ratioToFirst: number[];
+  readonly blocks: number;
+}
+
+/**
+ * Seconds per call of each of `fns`, robust to load that comes and goes: many short
+ * blocks, in each of which every function runs `reps` calls back to back (order
+ * rotating), timed by the wall clock; the per-block ratios to the first function are
+ * taken within a block (a few milliseconds apart, so a change of load hits both) and
+ * their median is reported, as are the median times. Each function first runs for
+ * `warmup` seconds; `reps` is set so that a block of the first function lasts about
+ * `blockSeconds`.
+ */
+export function pairedBlocks(
+  fns: readonly ((k: number) => void)[],
+  options: { warmup?: number; blockSeconds?: number; blocks?: number } = {},
+): PairedTimes {
+  const warmup = options.warmup ?? 0.3;
+  const blockSeconds = options.blockSeconds ?? 0.005;
+  const blocks = options.blocks ?? 100;
+  for (const fn of fns) {
+    const t0 = wallSeconds();
+    let k = 0;
+    while (wallSeconds() - t0 < warmup) fn(k++);
+  }
+  const t1 = wallSeconds();
+  let calls = 0;
+  while (wallSeconds() - t1 < 0.05) fns[0](calls++);
+  const reps = Math.max(1, Math.round((blockSeconds * calls) / (wallSeconds() - t1)));
+  const times = fns.map(() => new Float64Array(blocks));
+  for (let b = 0; b < blocks; b++) {
+    for (let f = 0; f < fns.length; f++) {
+      const i = (f + b) % fns.length;
+      const fn = fns[i];
+      const t0 = wallSeconds();
+      for (let k = 0; k < reps; k++) fn(k);
+      times[i][b] = (wallSeconds() - t0) / reps;
+    }
+  }
+  const median = (a: Float64Array): number => {
+    const s = Float64Array.from(a).sort();
+    const n = s.length;
+    return n % 2 ? s[(n - 1) / 2] : 0.5 * (s[n / 2 - 1] + s[n / 2]);
+  };
+  return {
+    median: times.map(median),
+    ratioToFirst: times.map((t) => median(t.map((x, b) => x / times[0][b]))),
+    blocks,
+  };
+}

@@ -436,7 +436,136 @@ export function createReferenceLikelihood(model: PlanetSystemModel): ReferenceLi
         sweep[j * 4 + 3] = tc + orbits[o + P_HI] + m * P;
       }
     }
-    for (let q = 0; q < n; q++) {
+    acc[0] = 0;
+    acc[1] = 0;
+    acc[2] = 1;
+    acc[3] = 0;
+    acc[4] = 0;
+    let q = 0;
+    while (q < n) {
+      // Points before the earliest window start of any planet need only the residual.
+      const until = nextWindowStart(t[q]);
+      if (t[q] < until) {
+        q = plainPoints(t, y, err2, q, until, f0, s2, acc);
+        continue;
+      }
+      windowPoint(t, y, err2, q, f0, s2, u1, u2);
+      q++;
+    }
+    chi2 = acc[0];
+    logProduct = acc[1];
+    product = acc[2];
+    gf0 = acc[3];
+    gs = acc[4];
+    logProduct += Math.log(product);
+    grad[layout.baseline[s]] += gf0;
+    grad[layout.fluxJitter[s]] += sj * gs;
+    if (kipping) {
+      const ra = Math.sqrt(a);
+      grad[layout.limbFirst[band]] += limbSums[0] * (b2 / ra) + limbSums[1] * ((1 - 2 * b2) / (2 * ra));
+      grad[layout.limbSecond[band]] += limbSums[0] * 2 * ra - limbSums[1] * 2 * ra;
+    } else {
+      grad[layout.limbFirst[band]] += limbSums[0];
+      grad[layout.limbSecond[band]] += limbSums[1];
+    }
+    for (let j = 0; j < nT; j++) {
+      const i = transiting[j];
+      const o = i * PL;
+      const sums = j * 8;
+      const P = orbits[o + P_PERIOD];
+      const n0 = orbits[o + P_N];
+      const e = orbits[o + P_E];
+      const aR = orbits[o + P_AR];
+      const root = orbits[o + P_ROOT];
+      const sw = orbits[o + P_SW];
+      const cw = orbits[o + P_CW];
+      const ci = orbits[o + P_CI];
+      const b = phi[layout.impact[i]];
+      const sumCi = lcSums[sums + 6];
+      const den = 1 + e * sw;
+      const r2 = root * root;
+      const dciDe = (b * (sw * r2 + 2 * e * den)) / (aR * r2 * r2);
+      const dciDw = (b * e * cw) / (aR * r2);
+      let gP = (-n0 / P) * lcSums[sums + 1];
+      const ge = orbits[o + P_MC_DE] * lcSums[sums] + lcSums[sums + 2] + lcSums[sums + 3] + dciDe * sumCi;
+      const gw = orbits[o + P_MC_DW] * lcSums[sums] + lcSums[sums + 4] + dciDw * sumCi;
+      const gaR = lcSums[sums + 5] / aR - (ci / aR) * sumCi;
+      grad[layout.tc[i]] += -n0 * lcSums[sums];
+      grad[layout.impact[i]] += (den / (aR * r2)) * sumCi;
+      grad[layout.radiusRatio[i]] += lcSums[sums + 7];
+      if (densityGeometry) {
+        gP += gaR * ((2 * aR) / (3 * P));
+        grad[layout.density] += gaR * (aR / (3 * phi[layout.density]));
+      } else {
+        grad[layout.scaledAxis[i]] += gaR;
+      }
+      grad[layout.period[i]] += gP;
+      addEccentricityGradient(phi, grad, layout.eccentricity[i], e, ge, gw);
+    }
+    return -0.5 * (chi2 + logProduct + n * LN_2PI);
+  }
+  const scratch = new Float64Array(Math.max(nT, 1) * 8);
+  const sweep = new Float64Array(Math.max(nT, 1) * 4);
+  const acc = new Float64Array(5);
+
+  /** Advances each planet's window sweep past `tq` and returns the earliest window start (−∞: a planet without a window). */
+  function nextWindowStart(tq: number): number {
+    let until = Infinity;
+    for (let j = 0; j < nT; j++) {
+      const w4 = j * 4;
+      const kind = sweep[w4];
+      if (kind === 2) continue;
+      if (kind === 0) return -Infinity;
+      if (tq > sweep[w4 + 3]) {
+        const o = transiting[j] * PL;
+        const P = orbits[o + P_PERIOD];
+        const m = Math.ceil((tq - orbits[o + P_TC] - orbits[o + P_HI]) / P);
+        sweep[w4 + 1] = m;
+        sweep[w4 + 2] = orbits[o + P_TC] + orbits[o + P_LO] + m * P;
+        sweep[w4 + 3] = orbits[o + P_TC] + orbits[o + P_HI] + m * P;
+      }
+      if (sweep[w4 + 2] < until) until = sweep[w4 + 2];
+    }
+    return until;
+  }
+
+  /**
+   * Points from `from` while t < `until`: out of every transit, so the model is f0 and only
+   * the residual sums change (acc: χ², Σ ln var in blocks, running product, ∂/∂f0, ∂/∂s / s).
+   * Returns the index of the first point not handled.
+   */
+  function plainPoints(t: Float64Array, y: Float64Array, err2: Float64Array, from: number, until: number, f0: number, s2: number, acc: Float64Array): number {
+    let chi2 = acc[0];
+    let logProduct = acc[1];
+    let product = acc[2];
+    let gf0 = acc[3];
+    let gs = acc[4];
+    const n = t.length;
+    let q = from;
+    for (; q < n && t[q] < until; q++) {
+      const v = err2[q] + s2;
+      const w = 1 / v;
+      const r = y[q] - f0;
+      const gm = r * w;
+      chi2 += r * gm;
+      product *= v;
+      if ((q & (LOG_BLOCK - 1)) === LOG_BLOCK - 1) {
+        logProduct += Math.log(product);
+        product = 1;
+      }
+      gf0 += gm;
+      gs += gm * gm - w;
+    }
+    acc[0] = chi2;
+    acc[1] = logProduct;
+    acc[2] = product;
+    acc[3] = gf0;
+    acc[4] = gs;
+    return q;
+  }
+
+  /** One point inside at least one planet's window (or with a planet that has none). */
+  function windowPoint(t: Float64Array, y: Float64Array, err2: Float64Array, q: number, f0: number, s2: number, u1: number, u2: number): void {
       const tq = t[q];
       // Relative flux of all planets: 1 − Σ (1 − F_p); only planets inside their window count.
       let blocked = 0;
@@ -502,15 +631,15 @@ export function createReferenceLikelihood(model: PlanetSystemModel): ReferenceLi
       const w = 1 / v;
       const r = y[q] - m;
       const gm = r * w;
-      chi2 += r * gm;
-      product *= v;
+      acc[0] += r * gm;
+      acc[2] *= v;
       if ((q & (LOG_BLOCK - 1)) === LOG_BLOCK - 1) {
-        logProduct += Math.log(product);
-        product = 1;
+        acc[1] += Math.log(acc[2]);
+        acc[2] = 1;
       }
-      gf0 += gm * relative;
-      gs += gm * gm - w;
-      if (touched < 0) continue;
+      acc[3] += gm * relative;
+      acc[4] += gm * gm - w;
+      if (touched < 0) return;
       const gF = gm * f0;
       for (let j = 0; j <= touched; j++) {
         if (scratchE[j * 3 + 2] === 0) continue;
@@ -554,56 +683,7 @@ export function createReferenceLikelihood(model: PlanetSystemModel): ReferenceLi
         limbSums[0] += gF * scratch[at + 2];
         limbSums[1] += gF * scratch[at + 3];
       }
-    }
-    logProduct += Math.log(product);
-    grad[layout.baseline[s]] += gf0;
-    grad[layout.fluxJitter[s]] += sj * gs;
-    if (kipping) {
-      const ra = Math.sqrt(a);
-      grad[layout.limbFirst[band]] += limbSums[0] * (b2 / ra) + limbSums[1] * ((1 - 2 * b2) / (2 * ra));
-      grad[layout.limbSecond[band]] += limbSums[0] * 2 * ra - limbSums[1] * 2 * ra;
-    } else {
-      grad[layout.limbFirst[band]] += limbSums[0];
-      grad[layout.limbSecond[band]] += limbSums[1];
-    }
-    for (let j = 0; j < nT; j++) {
-      const i = transiting[j];
-      const o = i * PL;
-      const sums = j * 8;
-      const P = orbits[o + P_PERIOD];
-      const n0 = orbits[o + P_N];
-      const e = orbits[o + P_E];
-      const aR = orbits[o + P_AR];
-      const root = orbits[o + P_ROOT];
-      const sw = orbits[o + P_SW];
-      const cw = orbits[o + P_CW];
-      const ci = orbits[o + P_CI];
-      const b = phi[layout.impact[i]];
-      const sumCi = lcSums[sums + 6];
-      const den = 1 + e * sw;
-      const r2 = root * root;
-      const dciDe = (b * (sw * r2 + 2 * e * den)) / (aR * r2 * r2);
-      const dciDw = (b * e * cw) / (aR * r2);
-      let gP = (-n0 / P) * lcSums[sums + 1];
-      const ge = orbits[o + P_MC_DE] * lcSums[sums] + lcSums[sums + 2] + lcSums[sums + 3] + dciDe * sumCi;
-      const gw = orbits[o + P_MC_DW] * lcSums[sums] + lcSums[sums + 4] + dciDw * sumCi;
-      const gaR = lcSums[sums + 5] / aR - (ci / aR) * sumCi;
-      grad[layout.tc[i]] += -n0 * lcSums[sums];
-      grad[layout.impact[i]] += (den / (aR * r2)) * sumCi;
-      grad[layout.radiusRatio[i]] += lcSums[sums + 7];
-      if (densityGeometry) {
-        gP += gaR * ((2 * aR) / (3 * P));
-        grad[layout.density] += gaR * (aR / (3 * phi[layout.density]));
-      } else {
-        grad[layout.scaledAxis[i]] += gaR;
-      }
-      grad[layout.period[i]] += gP;
-      addEccentricityGradient(phi, grad, layout.eccentricity[i], e, ge, gw);
-    }
-    return -0.5 * (chi2 + logProduct + n * LN_2PI);
   }
-  const scratch = new Float64Array(Math.max(nT, 1) * 8);
-  const sweep = new Float64Array(Math.max(nT, 1) * 4);
   const scratchE = new Float64Array(Math.max(nT, 1) * 3);
 
   return {
