@@ -1,15 +1,18 @@
 /**
  * The map from the compiled model's constrained vector θ (the sampled parameters in
- * their sampled form) to the physical vector Φ, and the pull-back of ∂/∂Φ to ∂/∂θ.
+ * their sampled form) to the physical vector Φ, its inverse, and the pull-back of ∂/∂Φ
+ * to ∂/∂θ. Most entries are copied; two are sampled in a transformed form:
  *
- * Most entries are copied. Two are transformed:
- * - an impact parameter is sampled as β = b/(1 + k) on (−1, 1): b = β (1 + k), so
- *   ∂/∂β = (1 + k) ∂/∂b and ∂/∂k gains β ∂/∂b;
- * - the stellar density and a/R_* are sampled as x₀ = x/s^p (`durationScale.ts`):
- *   x = x₀ s^p, so ∂/∂x₀ = s^p ∂/∂x and each input y of s gains p (x/s) (∂s/∂y) ∂/∂x.
- * The fill runs copies, then impact parameters, then duration-scaled entries; the
- * pull-back runs in the reverse order. A prior given for x itself (rather than the
- * default on x₀) is made exact by the term ln p(x) − ln p(x₀) + p ln s.
+ * 1. an impact parameter as β = b/(1 + k) on (−1, 1): b = β (1 + k), so ∂/∂β =
+ *    (1 + k) ∂/∂b and ∂/∂k gains β ∂/∂b;
+ * 2. the stellar density and a/R_* as x₀ = x/s^p (`durationScale.ts`): x = x₀ s^p, with s
+ *    from b, k and the eccentricity vector of the reference planet, so ∂/∂x₀ = s^p ∂/∂x
+ *    and each input y of s gains p (x/s) (∂s/∂y) ∂/∂x.
+ *
+ * The fill runs copies, then 1, then 2; the pull-back runs 2, 1, then copies. Priors: for
+ * density and a/R_* the default log-uniform prior is placed on x₀ (scale-free, so also
+ * log-uniform in x away from its ends), and a prior given for x itself is made exact by
+ * adding ln p(x) − ln p(x₀) + p ln s.
  */
 import type { ScalarPrior } from '@apsis/core';
 import { DS_B, DS_H, DS_K, DS_KE, DS_VALUE, durationScaleInto } from './durationScale.js';
@@ -17,18 +20,20 @@ import type { PlanEntry } from './parameterPlan.js';
 
 /** θ ↔ Φ for a list of sampled entries at the given θ offsets. */
 export interface PhysicalMapping {
-  /** Writes Φ (its fixed slots already set) from θ; false when s is undefined. */
+  /** Writes Φ (its fixed slots already set) from θ; false when a scale factor is undefined. */
   fill(theta: Float64Array, phi: Float64Array): boolean;
   /**
    * The prior corrections at (θ, Φ) after `fill`; with `gPhi`, adds their ∂/∂Φ there
-   * (their direct ∂/∂θ terms are added by `pullBack`).
+   * (their ∂/∂θ terms are added by `pullBack`).
    */
   correction(theta: Float64Array, phi: Float64Array, gPhi: Float64Array | null): number;
-  /** Writes ∂/∂θ from ∂/∂Φ (`gPhi` is modified). */
+  /** Writes ∂/∂θ from ∂/∂Φ (`gPhi` is modified), including the corrections' direct terms. */
   pullBack(theta: Float64Array, phi: Float64Array, gPhi: Float64Array, gTheta: Float64Array): void;
+  /** Writes θ for a complete physical vector Φ (the inverse of `fill`); false when undefined. */
+  invert(phi: Float64Array, theta: Float64Array): boolean;
 }
 
-interface Scaled {
+interface DurationStage {
   readonly n: number;
   readonly slot: number;
   readonly power: number;
@@ -41,12 +46,12 @@ interface Scaled {
 export function createPhysicalMapping(entries: readonly PlanEntry[], at: readonly number[]): PhysicalMapping {
   const plain: number[] = [];
   const impacts: number[] = [];
-  const scaled: Scaled[] = [];
+  const durations: DurationStage[] = [];
   entries.forEach((e, n) => {
     if (e.impactOf) impacts.push(n);
     else if (e.durationScaled) {
       const d = e.durationScaled;
-      scaled.push({
+      durations.push({
         n,
         slot: e.slot,
         power: d.power,
@@ -67,7 +72,7 @@ export function createPhysicalMapping(entries: readonly PlanEntry[], at: readonl
         const e = entries[n];
         phi[e.slot] = theta[at[n]] * (1 + phi[e.impactOf!.radiusSlot]);
       }
-      for (const c of scaled) {
+      for (const c of durations) {
         const [b, k, h, ke] = c.inputs;
         if (!durationScaleInto(phi[b], phi[k], phi[h], phi[ke], c.s)) return false;
         phi[c.slot] = theta[at[c.n]] * c.s[DS_VALUE] ** c.power;
@@ -76,7 +81,7 @@ export function createPhysicalMapping(entries: readonly PlanEntry[], at: readonl
     },
     correction(theta, phi, gPhi) {
       let total = 0;
-      for (const c of scaled) {
+      for (const c of durations) {
         if (!c.correction) continue;
         const x = phi[c.slot];
         const x0 = theta[at[c.n]];
@@ -95,8 +100,8 @@ export function createPhysicalMapping(entries: readonly PlanEntry[], at: readonl
       return total;
     },
     pullBack(theta, phi, gPhi, gTheta) {
-      for (let i = scaled.length - 1; i >= 0; i--) {
-        const c = scaled[i];
+      for (let i = durations.length - 1; i >= 0; i--) {
+        const c = durations[i];
         const gx = gPhi[c.slot];
         const s = c.s[DS_VALUE];
         let direct = gx * s ** c.power;
@@ -120,6 +125,22 @@ export function createPhysicalMapping(entries: readonly PlanEntry[], at: readonl
         const e = entries[n];
         for (let k = 0; k < e.size; k++) gTheta[at[n] + k] = gPhi[e.slot + k];
       }
+    },
+    invert(phi, theta) {
+      for (const n of plain) {
+        const e = entries[n];
+        for (let k = 0; k < e.size; k++) theta[at[n] + k] = phi[e.slot + k];
+      }
+      for (const n of impacts) {
+        const e = entries[n];
+        theta[at[n]] = phi[e.slot] / (1 + phi[e.impactOf!.radiusSlot]);
+      }
+      for (const c of durations) {
+        const [b, k, h, ke] = c.inputs;
+        if (!durationScaleInto(phi[b], phi[k], phi[h], phi[ke], c.s)) return false;
+        theta[at[c.n]] = phi[c.slot] / c.s[DS_VALUE] ** c.power;
+      }
+      return true;
     },
   };
 }

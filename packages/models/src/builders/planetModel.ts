@@ -34,7 +34,6 @@ import { planParameters, type ParameterPlan, type PlanEntry } from './parameterP
 import type { PreparedSystem } from './prepareInput.js';
 import { centredSupport } from './supports/centred.js';
 import { unitDisk } from './supports/unitDisk.js';
-import { durationScaleInto } from './durationScale.js';
 import { createPhysicalMapping } from './physicalMapping.js';
 import { createSystemLikelihood, type SystemLikelihood } from './systemLikelihood.js';
 
@@ -99,14 +98,6 @@ function declaredName(e: PlanEntry): string {
   return e.name;
 }
 
-/** x/s^p at Φ for a duration-scaled entry (see `durationScale.ts`); NaN when s is undefined. */
-function centralValue(e: PlanEntry, x: number, phi: Float64Array): number {
-  const d = e.durationScaled!;
-  const out = new Float64Array(5);
-  if (!durationScaleInto(phi[d.impactSlot], phi[d.radiusSlot], phi[d.eccentricitySlot], phi[d.eccentricitySlot + 1], out)) return NaN;
-  return x / out[0] ** d.power;
-}
-
 /** The base support of a sampled entry: the natural bounds intersected with the prior's. */
 function baseSupport(e: PlanEntry): Support {
   // An eccentricity prior ending below 1 sets the disk's radius (√e_max).
@@ -166,37 +157,36 @@ export async function buildPlanetModel(system: PreparedSystem): Promise<PlanetSy
   const phiFixed = new Float64Array(L);
   for (const e of plan.entries) for (let k = 0; k < e.size; k++) phiFixed[e.slot + k] = (e.fixed ?? e.guess)[k];
 
-  const declared: Declared[] = plan.entries
-    .filter((e) => e.fixed === null)
-    .map((e) => {
-      const base = baseSupport(e);
-      const transform = base.bind(e.size);
-      // Starting value in the base support's own coordinates.
-      let value = e.guess;
-      if (e.impactOf) {
-        const k = plan.entries.find((x) => x.slot === e.impactOf?.radiusSlot)?.guess[0] ?? 0.1;
-        value = [Math.min(Math.max(e.guess[0] / (1 + k), -0.999), 0.999)];
-      } else if (e.size === 1) {
-        const prior = e.prior as ScalarPrior;
-        const x = e.durationScaled ? centralValue(e, e.guess[0], phiFixed) : e.guess[0];
-        value = [clampInside(Number.isFinite(x) ? x : e.guess[0], Math.max(e.lower, prior.lower), Math.min(e.upper, prior.upper))];
-      }
-      const centre = new Float64Array(transform.unconstrainedLength);
-      if (!transform.inverse(value, 0, centre, 0)) {
-        throw new FitSettingsError(`start.${e.columns[0]}`, value[0], `a starting value inside the support ${base.description}`);
-      }
-      const width = e.size === 1 && !e.impactOf ? priorWidth(e.prior as ScalarPrior, value[0]) : NaN;
-      const real = base.kind === 'real';
-      const s0 = e.size === 2 ? 0.3 : real && width > 0 ? width : 1;
-      return {
-        entry: e,
-        name: declaredName(e),
-        base,
-        centre,
-        scale: new Float64Array(centre.length).fill(s0),
-        maxScale: e.size === 2 ? 0.5 : real ? Infinity : 2,
-      };
-    });
+  // Starting values of the sampled coordinates: the inverse map of the guesses.
+  const sampled = plan.entries.filter((e) => e.fixed === null);
+  const thetaAt: number[] = [];
+  sampled.reduce((offset, e) => (thetaAt.push(offset), offset + e.size), 0);
+  const thetaGuess = new Float64Array(sampled.reduce((n, e) => n + e.size, 0));
+  if (!createPhysicalMapping(sampled, thetaAt).invert(phiFixed, thetaGuess)) {
+    throw new FitSettingsError('start', 'the starting guesses', 'a transit geometry and limb darkening that can be sampled (0 ≤ b < 1 + k, physical limb darkening)');
+  }
+  const declared: Declared[] = sampled.map((e, n) => {
+    const base = baseSupport(e);
+    const transform = base.bind(e.size);
+    const raw = Array.from(thetaGuess.subarray(thetaAt[n], thetaAt[n] + e.size));
+    // Keep the starting value strictly inside the support.
+    const value = e.size === 2 ? raw : [clampInside(raw[0], base.lower, base.upper)];
+    const centre = new Float64Array(transform.unconstrainedLength);
+    if (!transform.inverse(value, 0, centre, 0)) {
+      throw new FitSettingsError(`start.${e.columns[0]}`, value[0], `a starting value inside the support ${base.description}`);
+    }
+    const width = e.size === 1 && !e.impactOf ? priorWidth(e.prior as ScalarPrior, value[0]) : NaN;
+    const real = base.kind === 'real';
+    const s0 = e.size === 2 ? 0.3 : real && width > 0 ? width : 1;
+    return {
+      entry: e,
+      name: declaredName(e),
+      base,
+      centre,
+      scale: new Float64Array(centre.length).fill(s0),
+      maxScale: e.size === 2 ? 0.5 : real ? Infinity : 2,
+    };
+  });
   const dim = declared.reduce((s, d) => s + d.centre.length, 0);
   const points = (system.rv?.times.length ?? 0) + system.lightCurves.reduce((s, l) => s + l.times.length, 0);
   if (points < dim) {
@@ -312,28 +302,19 @@ export async function buildPlanetModel(system: PreparedSystem): Promise<PlanetSy
       return Object.fromEntries(columns.names.map((n, i) => [n, out[i]]));
     },
     positionOf(values) {
-      const theta = new Float64Array(compiled.layout.length);
-      compiled.outputs.write(x0, theta);
+      // The physical vector at the centre, with the given values put in, mapped back.
+      const phi = physicalAt(x0);
       const byColumn = new Map<string, [number, number]>();
       declared.forEach((d, n) => d.entry.columns.forEach((c, k) => byColumn.set(c, [n, k])));
       for (const [key, v] of Object.entries(values)) {
-        if (!byColumn.has(key)) throw new FitSettingsError(`values.${key}`, v, `a sampled parameter: ${[...byColumn.keys()].join(', ')}`);
+        const hit = byColumn.get(key);
+        if (!hit) throw new FitSettingsError(`values.${key}`, v, `a sampled parameter: ${[...byColumn.keys()].join(', ')}`);
         if (typeof v !== 'number' || !Number.isFinite(v)) throw new FitSettingsError(`values.${key}`, v, 'a finite number');
+        phi[declared[hit[0]].entry.slot + hit[1]] = v;
       }
-      // Copied entries first, then impact parameters (b/(1 + k) with the new k), then
-      // duration-scaled entries (x/s^p with the new b, k, e).
-      const phi = Float64Array.from(phiFixed);
-      for (const pass of ['plain', 'impact', 'scaled'] as const) {
-        for (const [key, v] of Object.entries(values)) {
-          const [n, k] = byColumn.get(key) as [number, number];
-          const e = declared[n].entry;
-          const kind = e.impactOf ? 'impact' : e.durationScaled ? 'scaled' : 'plain';
-          if (kind !== pass) continue;
-          if (pass === 'plain') theta[layoutAt[n] + k] = v;
-          else if (pass === 'impact') theta[layoutAt[n]] = v / (1 + phi[e.impactOf!.radiusSlot]);
-          else theta[layoutAt[n]] = centralValue(e, v, phi);
-        }
-        outputMapping.fill(theta, phi);
+      const theta = new Float64Array(compiled.layout.length);
+      if (!outputMapping.invert(phi, theta)) {
+        throw new FitSettingsError('values', JSON.stringify(values), 'a transit geometry and limb darkening that can be sampled (0 ≤ b < 1 + k, physical limb darkening)');
       }
       const named: Record<string, number | number[]> = {};
       for (const [n, d] of declared.entries()) {
