@@ -4,12 +4,12 @@
  *
  * Formulas (units in the column table of docs/fitting-radial-velocities.md):
  * - e = h² + k², ω = atan2(k, h) for (h, k) = (√e cos ω, √e sin ω), in degrees, taken
- *   within 180° of its value at the model's centre (so a posterior around ±180° does
- *   not split in two);
+ *   within 180° of its value at the model's centre when e ≥ 0.02 there (so a posterior
+ *   around ±180° does not split in two), else in (−180°, 180°];
  * - time of periastron tp = tc − P M_c/(2π) + n P, M_c the mean anomaly at conjunction
  *   (`orbit/epochs.ts`), with the whole number n that puts tp nearest to the
- *   periastron time at the model's centre (its posterior mode), so that draws do not
- *   jump by a period where M_c crosses ±π;
+ *   periastron time at the model's centre (its posterior mode) when e ≥ 0.02 there, so
+ *   that draws do not jump by a period where M_c crosses ±π (else n = 0);
  * - planet mass from K by the mass function (m sin i)³/(M_* + m)² =
  *   P K³ (1 − e²)^(3/2)/(2π G M_sun) (Lovis & Fischer 2010, eq. 1, inverted): the
  *   minimum mass with sin i = 1, the true mass with the transit's inclination;
@@ -207,8 +207,13 @@ export function outputColumns(system: PreparedSystem, plan: ParameterPlan): Outp
       tpReference.fill(NaN);
       omegaReference.fill(NaN);
       for (let c = 0; c < writers.length; c++) writers[c](phi, out, c);
-      tpColumns.forEach((c, i) => (tpReference[i] = c >= 0 ? out[c] : NaN));
-      omegaColumns.forEach((c, i) => (omegaReference[i] = c >= 0 ? out[c] : NaN));
+      // Only an eccentricity clearly away from 0 gives ω (and tp) a meaningful reference.
+      system.planets.forEach((_, i) => {
+        const e = phi[layout.eccentricity[i]] ** 2 + phi[layout.eccentricity[i] + 1] ** 2;
+        if (!(e >= 0.02)) return;
+        if (tpColumns[i] >= 0) tpReference[i] = out[tpColumns[i]];
+        if (omegaColumns[i] >= 0) omegaReference[i] = out[omegaColumns[i]];
+      });
     },
   };
 }

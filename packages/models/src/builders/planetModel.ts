@@ -27,6 +27,7 @@ import {
   type Support,
   type Target,
   type TargetOutputs,
+  type VectorPrior,
 } from '@apsis/core';
 import { outputColumns, type OutputColumns } from './derivedQuantities.js';
 import { FitDataError, FitSettingsError } from './errors.js';
@@ -135,6 +136,13 @@ function priorWidth(prior: ScalarPrior, x: number): number {
   return c < 0 && Number.isFinite(c) ? 1 / Math.sqrt(-c) : NaN;
 }
 
+/** Whether an eccentricity-vector prior's density grows without bound towards e = 0. */
+function singularAtZero(prior: VectorPrior): boolean {
+  const at = (e: number): number => prior.logDensity(Float64Array.of(Math.sqrt(e), 0), 0, 2);
+  const near = at(1e-12);
+  return !Number.isFinite(near) || near - at(1e-4) > 1;
+}
+
 interface Declared {
   readonly entry: PlanEntry;
   readonly name: string;
@@ -235,7 +243,9 @@ export async function buildPlanetModel(system: PreparedSystem): Promise<PlanetSy
         // An eccentricity prior with an infinite density at e = 0 (a beta with α < 1)
         // puts the mode on that point; such vectors keep their starting centre.
         declared.forEach((d, n) => {
-          if (d.entry.size === 2 && Math.hypot(d.centre[0], d.centre[1]) < 1e-3) d.centre.set(startCentres[n]);
+          if (d.entry.size === 2 && Math.hypot(d.centre[0], d.centre[1]) < 1e-3 && singularAtZero(d.entry.prior as VectorPrior)) {
+            d.centre.set(startCentres[n]);
+          }
         });
       }
       compiled = await compile();
