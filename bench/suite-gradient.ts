@@ -2,8 +2,7 @@
  * Gradient cost of the shipped models against the practical limit.
  *
  * For the joint RV + transit model and the two-planet RV model of
- * bench/support/modelScenarios.ts, at N = 1e2 … 1e5 data points, three costs per call
- * (process CPU time, interleaved rounds, fastest round kept):
+ * bench/support/modelScenarios.ts, at N = 1e2 … 1e5 data points, three costs per call:
  * - shipped: `model.logDensityGrad(u, grad)`, the whole log-density as the sampler sees
  *   it (coordinate maps, priors, Jacobians, the fused float64 likelihood, the chain rule);
  * - its likelihood alone: `model.structure.likelihood.evaluate(Φ, grad)`;
@@ -13,8 +12,10 @@
  *   exact priors and maps cost the same order, well under a microsecond for 14 coordinates).
  * Wall-clock time in many short interleaved blocks; the ratio shipped / limit is formed
  * within each block and its median over blocks is the figure (robust to load from other
- * processes, which comes and goes); the likelihood-alone ratio and the layers'
- * share tell where any excess comes from. The reference is checked against the model's
+ * processes, which comes and goes); the likelihood-alone ratio and the layers' share
+ * tell where any excess comes from. The joint scenario uses 2-minute exposures (one
+ * sub-sample per exposure), which the reference supports; the demo's 30-minute
+ * exposures would need supersampling, which it does not implement. The reference is checked against the model's
  * likelihood before timing (bench/support/referenceCheck.ts).
  *
  * Each (model, N) is measured in a fresh process: compiling several models in one
