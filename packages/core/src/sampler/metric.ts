@@ -64,40 +64,28 @@ export function denseMetric(inverseMass: ArrayLike<number>, dim: number): Metric
   return { kind: 'dense', dim, inverseMass: m, choleskyLower: l };
 }
 
-/**
- * out = M⁻¹ x. `out` must not alias `x` for a dense metric.
- *
- * Each metric kind has its own small function (here and in {@link drawMomentum}): V8
- * compiles the loops of one function holding all three variants markedly slower.
- */
+/** out = M⁻¹ x. `out` must not alias `x` for a dense metric. */
 export function applyInverseMass(metric: Metric, x: Float64Array, out: Float64Array): void {
-  if (metric.kind === 'diagonal') scaleInto(metric.inverseMass, x, out);
-  else if (metric.kind === 'unit') copyInto(x, out, metric.dim);
-  else denseProductInto(metric.inverseMass, metric.dim, x, out);
-}
-
-function copyInto(x: Float64Array, out: Float64Array, n: number): void {
-  for (let i = 0; i < n; i++) out[i] = x[i];
-}
-
-function scaleInto(m: Float64Array, x: Float64Array, out: Float64Array): void {
-  const n = m.length;
-  for (let i = 0; i < n; i++) out[i] = m[i] * x[i];
-}
-
-function denseProductInto(m: Float64Array, n: number, x: Float64Array, out: Float64Array): void {
-  for (let i = 0; i < n; i++) {
-    let s = 0;
-    const row = i * n;
-    for (let j = 0; j < n; j++) s += m[row + j] * x[j];
-    out[i] = s;
+  const n = metric.dim;
+  if (metric.kind === 'unit') {
+    for (let i = 0; i < n; i++) out[i] = x[i];
+  } else if (metric.kind === 'diagonal') {
+    const m = metric.inverseMass;
+    for (let i = 0; i < n; i++) out[i] = m[i] * x[i];
+  } else {
+    const m = metric.inverseMass;
+    for (let i = 0; i < n; i++) {
+      let s = 0;
+      const row = i * n;
+      for (let j = 0; j < n; j++) s += m[row + j] * x[j];
+      out[i] = s;
+    }
   }
 }
 
 /**
  * Draws a momentum p ~ N(0, M) into `p` and writes its velocity M⁻¹ p into `velocity`.
- * Dense: with M⁻¹ = L Lᵀ and z ~ N(0, I), p = L⁻ᵀ z and M⁻¹ p = L z. The standard
- * normals are drawn first (into `velocity`), then transformed in a loop of arithmetic.
+ * Dense: with M⁻¹ = L Lᵀ and z ~ N(0, I), p = L⁻ᵀ z and M⁻¹ p = L z.
  */
 export function drawMomentum(
   metric: Metric,
@@ -106,36 +94,37 @@ export function drawMomentum(
   velocity: Float64Array,
 ): void {
   const n = metric.dim;
-  for (let i = 0; i < n; i++) velocity[i] = rng.normal();
-  if (metric.kind === 'unit') copyInto(velocity, p, n);
-  else if (metric.kind === 'diagonal') diagonalMomentum(metric.inverseMass, p, velocity);
-  else denseMomentum(metric.choleskyLower, n, p, velocity);
-}
-
-/** p = z / √m, v = z √m, with z in `velocity` on entry. */
-function diagonalMomentum(m: Float64Array, p: Float64Array, velocity: Float64Array): void {
-  const n = m.length;
-  for (let i = 0; i < n; i++) {
-    const z = velocity[i];
-    const s = Math.sqrt(m[i]);
-    p[i] = z / s;
-    velocity[i] = z * s;
-  }
-}
-
-/** Lᵀ p = z (back substitution), then velocity = L z, with z in `velocity` on entry. */
-function denseMomentum(l: Float64Array, n: number, p: Float64Array, velocity: Float64Array): void {
-  for (let i = n - 1; i >= 0; i--) {
-    let s = velocity[i];
-    for (let k = i + 1; k < n; k++) s -= l[k * n + i] * p[k];
-    p[i] = s / l[i * n + i];
-  }
-  // velocity = L z, computed from the bottom row up so z is read before being overwritten.
-  for (let i = n - 1; i >= 0; i--) {
-    let s = 0;
-    const row = i * n;
-    for (let k = 0; k <= i; k++) s += l[row + k] * velocity[k];
-    velocity[i] = s;
+  if (metric.kind === 'unit') {
+    for (let i = 0; i < n; i++) {
+      const z = rng.normal();
+      p[i] = z;
+      velocity[i] = z;
+    }
+  } else if (metric.kind === 'diagonal') {
+    const m = metric.inverseMass;
+    for (let i = 0; i < n; i++) {
+      const z = rng.normal();
+      const s = Math.sqrt(m[i]);
+      p[i] = z / s;
+      velocity[i] = z * s;
+    }
+  } else {
+    const l = metric.choleskyLower;
+    // z in `velocity` as scratch first.
+    for (let i = 0; i < n; i++) velocity[i] = rng.normal();
+    // Back substitution Lᵀ p = z.
+    for (let i = n - 1; i >= 0; i--) {
+      let s = velocity[i];
+      for (let k = i + 1; k < n; k++) s -= l[k * n + i] * p[k];
+      p[i] = s / l[i * n + i];
+    }
+    // velocity = L z, computed from the bottom row up so z is read before being overwritten.
+    for (let i = n - 1; i >= 0; i--) {
+      let s = 0;
+      const row = i * n;
+      for (let k = 0; k <= i; k++) s += l[row + k] * velocity[k];
+      velocity[i] = s;
+    }
   }
 }
 
