@@ -9,7 +9,6 @@
  * is the uniform density 1/π on the unit disk.
  */
 import { priors, type ScalarPrior, type VectorPrior } from '@apsis/core';
-import { UNIT_DISK_KIND } from './supports/unitDisk.js';
 
 const LOG_PI = Math.log(Math.PI);
 
@@ -27,7 +26,7 @@ export function eccentricityDiskPrior(eccentricity: ScalarPrior = priors.uniform
     lower: 0,
     upper: Math.min(1, p.upper),
     proper: p.proper,
-    supportKinds: [UNIT_DISK_KIND],
+    supportKinds: ['unitDisk'],
     length: 2,
     logDensity(x, at) {
       const e = x[at] * x[at] + x[at + 1] * x[at + 1];

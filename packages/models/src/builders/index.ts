@@ -16,7 +16,6 @@ export type {
 export type { PriorInput } from './priorInput.js';
 export { createRvModel, createTransitModel, createJointModel } from './createModels.js';
 export type { ParameterSummary, PlanetSystemModel } from './planetModel.js';
-export { unitDisk } from './supports/unitDisk.js';
 export { centredSupport } from './supports/centred.js';
 export { eccentricityDiskPrior } from './eccentricityPrior.js';
 export {

@@ -34,7 +34,6 @@ import { FitDataError, FitSettingsError } from './errors.js';
 import { planParameters, type ParameterPlan, type PlanEntry } from './parameterPlan.js';
 import type { PreparedSystem } from './prepareInput.js';
 import { centredSupport } from './supports/centred.js';
-import { unitDisk } from './supports/unitDisk.js';
 import { createPhysicalMapping } from './physicalMapping.js';
 import { createSystemLikelihood, type SystemLikelihood } from './systemLikelihood.js';
 
@@ -102,7 +101,7 @@ function declaredName(e: PlanEntry): string {
 /** The base support of a sampled entry: the natural bounds intersected with the prior's. */
 function baseSupport(e: PlanEntry): Support {
   // An eccentricity prior ending below 1 sets the disk's radius (√e_max).
-  if (e.size === 2) return unitDisk(Math.sqrt(Math.min(1, e.prior.upper)));
+  if (e.size === 2) return supports.unitDisk(Math.sqrt(Math.min(1, e.prior.upper)));
   if (e.impactOf) return supports.interval(-1, 1);
   const prior = e.prior as ScalarPrior;
   const lo = Math.max(e.lower, prior.lower);

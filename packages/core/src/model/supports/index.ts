@@ -5,11 +5,13 @@ import { interval, lowerBounded, positive, unitInterval, upperBounded } from './
 import { ordered } from './ordered.js';
 import { real } from './real.js';
 import { simplex } from './simplex.js';
+import { unitDisk } from './unitDisk.js';
 
 /**
  * Supports of parameters, each with its bijection to the unconstrained space:
  * `real()`, `positive()`, `lowerBounded(lower)`, `upperBounded(upper)`,
- * `interval(lower, upper)`, `unitInterval()`, `ordered()`, `angle()`, `simplex()`.
+ * `interval(lower, upper)`, `unitInterval()`, `ordered()`, `angle()`, `simplex()`,
+ * `unitDisk(radius?)` (2-vectors inside a disk, e.g. (√e cos ω, √e sin ω)).
  */
 export const supports = {
   real,
@@ -21,4 +23,5 @@ export const supports = {
   ordered,
   angle,
   simplex,
+  unitDisk,
 } as const;

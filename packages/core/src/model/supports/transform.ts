@@ -69,4 +69,5 @@ export type SupportKind =
   | 'interval'
   | 'ordered'
   | 'angle'
-  | 'simplex';
+  | 'simplex'
+  | 'unitDisk';

@@ -14,16 +14,15 @@
  * which falls like −2r far out: a uniform density on the disk becomes a density over u
  * with exponential tails, which suits HMC. The eccentricity vector
  * (√e cos ω, √e sin ω) is sampled on this support: its origin (e = 0) is an interior
- * point, so near-circular orbits are no boundary case.
+ * point, so near-circular orbits are no boundary case. A radius R < 1 scales the map
+ * (x, y) = R t(r) u, adding 2 ln R to log|det| (an eccentricity capped at R²).
  *
  * Gradient: with ∂xᵢ/∂uⱼ = t δᵢⱼ + q uᵢ uⱼ, q = t'(r)/r = (sech² r − t)/r²
  * = (2r − sinh 2r)/(2 r³ cosh² r) (no cancellation: the series of 2r − sinh 2r has
  * terms of one sign), and ∇ᵤ log|det| = (−2t + q/t) u.
  */
-import type { Support, SupportKind, Transform } from '@apsis/core';
-
-/** The support kind of the unit disk (not one of the modelling layer's own kinds). */
-export const UNIT_DISK_KIND = 'unitDisk' as unknown as SupportKind;
+import { SupportArgumentError } from '../errors.js';
+import type { Support, Transform } from './transform.js';
 
 /** ln cosh r for r ≥ 0 without overflow. */
 function logCosh(r: number): number {
@@ -108,12 +107,15 @@ class UnitDiskTransform implements Transform {
 /**
  * The open disk of the given radius (default 1) for a parameter of size 2: the map of
  * the file notes, scaled by the radius (log|det| gains 2 ln radius). Its prior must be a
- * vector prior for this kind, such as {@link eccentricityDiskPrior}.
+ * vector prior for this kind (supportKinds including 'unitDisk'); the models package's
+ * eccentricity builders supply one.
  */
 export function unitDisk(radius = 1): Support {
-  if (!(radius > 0 && radius <= 1)) throw new RangeError(`unitDisk: radius = ${radius}: expected a number in (0, 1]`);
+  if (typeof radius !== 'number' || !(radius > 0 && radius <= 1)) {
+    throw new SupportArgumentError('unitDisk.radius', radius, 'a number in (0, 1]');
+  }
   return {
-    kind: UNIT_DISK_KIND,
+    kind: 'unitDisk',
     description: radius === 1 ? 'unitDisk()' : `unitDisk(${radius})`,
     lower: -radius,
     upper: radius,
@@ -121,12 +123,10 @@ export function unitDisk(radius = 1): Support {
     minLength: 2,
     unconstrainedLength: (n) => n,
     bind: (n) => {
-      if (n !== 2) throw new RangeError(`unitDisk: size = ${n}: expected 2`);
+      if (n !== 2) throw new SupportArgumentError('unitDisk size', n, 'exactly 2 (one point of the disk)');
       return new UnitDiskTransform(radius);
     },
     coordinateName: (name, _n, _scalar, k) => `${name}.u[${k}]`,
   };
 }
 
-/** Exposed for tests: t(r) and q(r) of the map. */
-export const unitDiskInternals = { ratio, curvature, logCosh };
