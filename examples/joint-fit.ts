@@ -44,7 +44,7 @@ export function simulate(points: number, transits: number, seed: string): { rv: 
   const lcTimes: number[] = [];
   for (let n = 0; n < transits; n++) {
     const mid = truth.b.tc + 3 * n * truth.b.period; // every third transit was observed
-    for (let t = mid - 0.2; t < mid + 0.2; t += exposure) lcTimes.push(t);
+    for (let t = mid - 0.15; t < mid + 0.15; t += exposure) lcTimes.push(t);
   }
   const lightCurve = simulateLightCurve(
     { label: 'cam', times: lcTimes, errors: 8e-4, exposureTime: exposure, planets: [truth.b], starDensity: truth.star.density, ...truth.limbDarkening },
