@@ -115,7 +115,7 @@ export async function run(options: SuiteOptions): Promise<SuiteResult> {
   const q = options.quick;
   const dense = rotatedGaussian(100, 1e4, 'apsis bench gaussian');
   const iid = autoregressiveGaussian(100, 0);
-  const honest = measureOverhead(dense.target, 'diagonal', { warmup: q ? 150 : 300, blockSeconds: 0.006, blocks: q ? 150 : 300, seed: 41 });
+  const honest = measureOverhead(dense.target, 'diagonal', { warmup: q ? 150 : 300, blockSeconds: 0.006, blocks: q ? 250 : 300, seed: 41 });
   const shallow = measureOverhead(iid.target, 'diagonal', { warmup: 300, blockSeconds: 0.003, blocks: q ? 150 : 300, seed: 42 });
   const denseMetric = q ? null : measureOverhead(dense.target, 'dense', { warmup: 400, blockSeconds: 0.006, blocks: 100, seed: 43 });
   const ratio = (f: OverheadFigures): number => f.ratio;
