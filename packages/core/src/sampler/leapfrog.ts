@@ -161,3 +161,38 @@ export function slabKick(
   }
   return twiceKinetic;
 }
+
+/**
+ * {@link slabKick} fused with the first half of the next leapfrog step: after p and v
+ * are written, half = p + ε/2 g (the same g) and qNext = q + ε m half. `qNext` is a
+ * different vector from `q`, which keeps the current position for the caller (the point
+ * may still be chosen as the draw). Bit-identical to slabKick followed by slabKickDrift.
+ */
+export function slabKickDriftNext(
+  s: Float64Array,
+  n: number,
+  half: number,
+  g: number,
+  m: number,
+  stepSize: number,
+  pOut: number,
+  vOut: number,
+  q: number,
+  qNext: number,
+): number {
+  const h = 0.5 * stepSize;
+  let twiceKinetic = 0;
+  for (let i = 0; i < n; i++) {
+    const gi = s[g + i];
+    const mi = s[m + i];
+    const pi = s[half + i] + h * gi;
+    const vi = mi * pi;
+    s[pOut + i] = pi;
+    s[vOut + i] = vi;
+    twiceKinetic += pi * vi;
+    const next = pi + h * gi;
+    s[half + i] = next;
+    s[qNext + i] = s[q + i] + stepSize * mi * next;
+  }
+  return twiceKinetic;
+}

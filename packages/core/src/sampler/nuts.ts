@@ -1,7 +1,7 @@
 import type { RandomStream } from '../random/index.js';
 import type { Target } from '../target.js';
 import type { ChainPoint } from './chainPoint.js';
-import { leapfrogStep, slabKick, slabKickDrift } from './leapfrog.js';
+import { leapfrogStep, slabKick, slabKickDrift, slabKickDriftNext } from './leapfrog.js';
 import { applyInverseMass, drawMomentum, kineticEnergy, type Metric } from './metric.js';
 import { copyPhasePoint, type PhasePoint } from './phasePoint.js';
 import type { TransitionStats } from './transitionStats.js';
@@ -10,7 +10,9 @@ import {
   createSlabMerge,
   mergeChain,
   slabKickMergePair,
+  slabKickMergePairDrift,
   slabKickMergePoint,
+  slabKickMergePointDrift,
   slabMergeAcross,
   type KickEnergy,
   type MergeInputs,
@@ -34,6 +36,10 @@ interface EndOffsets {
   readonly g: number;
   readonly p: number;
   readonly v: number;
+  /** A second position vector: steps alternate between `q` and this one (diagonal metric). */
+  readonly qAlt: number;
+  /** A view of `qAlt`. */
+  readonly qAltView: Float64Array;
 }
 
 /**
@@ -115,8 +121,8 @@ function createSlot(dim: number): SampleSlot {
 /** Buffers for NUTS in `dim` dimensions with trees of at most `maxTreeDepth` doublings. */
 export function createNutsWorkspace(dim: number, maxTreeDepth: number): NutsWorkspace {
   const levels = maxTreeDepth + 1;
-  // Vectors: 5 per level, 10 for the two ends, rho, nearP, nearV, scratch, half, inverse mass.
-  const slab = new Float64Array(dim * (5 * levels + 16));
+  // Vectors: 5 per level, 12 for the two ends, rho, nearP, nearV, scratch, half, inverse mass.
+  const slab = new Float64Array(dim * (5 * levels + 18));
   let next = 0;
   const take = (): number => {
     const at = next;
@@ -131,7 +137,12 @@ export function createNutsWorkspace(dim: number, maxTreeDepth: number): NutsWork
   const endVAt = perLevel();
   const rhoFirstAt = perLevel();
   const end = (): { point: PhasePoint; at: EndOffsets } => {
-    const at = { q: take(), g: take(), p: take(), v: take() };
+    const q = take();
+    const g = take();
+    const p = take();
+    const v = take();
+    const qAlt = take();
+    const at = { q, g, p, v, qAlt, qAltView: view(qAlt) };
     const point: PhasePoint = {
       position: view(at.q),
       momentum: view(at.p),
@@ -288,34 +299,46 @@ function extendDiagonal(
   const n = ws.dim;
   const half = ws.halfAt;
   const mass = ws.inverseMassAt;
+  const g = at.g;
   const count = 1 << depth;
-  let p = at.p;
+  // The position alternates between the end's own vector and its second one: each
+  // step's second half-kick also makes the next step's first half and drift, writing the
+  // next position beside the current one (which the draw may still take).
+  let q = at.q;
+  let qNext = at.qAlt;
+  let position = point.position;
+  let positionNext = at.qAltView;
+  slabKickDrift(slab, n, at.p, g, mass, q, half, eps);
   for (let j = 0; j < count; j++) {
-    slabKickDrift(slab, n, p, at.g, mass, at.q, half, eps);
-    point.logDensity = target.logDensityGrad(point.position, point.gradient);
+    point.logDensity = target.logDensityGrad(position, point.gradient);
     const last = j === count - 1;
     if ((j & 1) === 0 && !last) {
       const t = j === 0 ? depth : trailingZeros(j);
-      p = startPAt[t];
-      point.kinetic = 0.5 * slabKick(slab, n, half, at.g, mass, eps, p, startVAt[t]);
-      if (!acceptPoint(ws, point)) return false;
-      continue;
-    }
-    const m = fillSlabMerges(ws, j, depth, last, farV);
-    if (last) {
-      const held = kickMerging(ws, at.g, eps, at.p, at.v, m + 1, ws.rhoAt);
+      point.kinetic = 0.5 * slabKickDriftNext(slab, n, half, g, mass, eps, startPAt[t], startVAt[t], q, qNext);
+      if (!acceptPoint(ws, point, position)) return false;
+    } else if (last) {
+      const m = fillSlabMerges(ws, j, depth, true, farV);
+      const held = kickMerging(ws, g, eps, at.p, at.v, m + 1, ws.rhoAt);
       point.kinetic = 0.5 * energy.twiceKinetic;
-      if (!acceptPoint(ws, point)) return false;
+      if (!acceptPoint(ws, point, position)) return false;
       if (held < m) return false;
+      if (q !== at.q) point.position.set(position);
       ws.persists = held === m + 1;
       return true;
+    } else {
+      const m = fillSlabMerges(ws, j, depth, false, farV);
+      const held = kickMergingDrift(ws, g, eps, endPAt[m], endVAt[m], m, rhoFirstAt[m], q, qNext);
+      point.kinetic = 0.5 * energy.twiceKinetic;
+      if (!acceptPoint(ws, point, position)) return false;
+      if (held < m) return false;
+      if (m > 2) swapSums(ws, m);
     }
-    p = endPAt[m];
-    const held = kickMerging(ws, at.g, eps, p, endVAt[m], m, rhoFirstAt[m]);
-    point.kinetic = 0.5 * energy.twiceKinetic;
-    if (!acceptPoint(ws, point)) return false;
-    if (held < m) return false;
-    if (m > 2) swapSums(ws, m);
+    const tq = q;
+    q = qNext;
+    qNext = tq;
+    const tv = position;
+    position = positionNext;
+    positionNext = tv;
   }
   return true;
 }
@@ -343,13 +366,31 @@ function kickMerging(ws: NutsWorkspace, g: number, eps: number, pOut: number, vO
   return count;
 }
 
+/** {@link kickMerging} fused also with the next step's first half and drift (into `qNext`). */
+function kickMergingDrift(ws: NutsWorkspace, g: number, eps: number, pOut: number, vOut: number, count: number, out: number, q: number, qNext: number): number {
+  const { slab, slabMerges, energy } = ws;
+  const n = ws.dim;
+  if (count === 1) {
+    return slabKickMergePointDrift(slab, n, ws.halfAt, g, ws.inverseMassAt, eps, pOut, vOut, energy, slabMerges[0], out, q, qNext);
+  }
+  const held = slabKickMergePairDrift(slab, n, ws.halfAt, g, ws.inverseMassAt, eps, pOut, vOut, energy, slabMerges[0], slabMerges[1], count === 2 ? out : ws.scratchAt, q, qNext);
+  if (count === 2 || held < 2) return held;
+  let second = ws.scratchAt;
+  for (let k = 2; k < count; k++) {
+    const l = slabMerges[k];
+    if (!slabMergeAcross(slab, n, l, second, vOut)) return k;
+    second = l.rhoFirst;
+  }
+  return count;
+}
+
 /**
  * Counts a new trajectory point and checks it: false when it diverged (energy error
  * above the threshold or not finite); otherwise adds its acceptance statistic and makes
  * the multinomial draw within the subtree by weighted reservoir sampling (the point is
  * kept with probability weight / (weight of the subtree so far)).
  */
-function acceptPoint(ws: NutsWorkspace, point: PhasePoint): boolean {
+function acceptPoint(ws: NutsWorkspace, point: PhasePoint, position: Float64Array = point.position): boolean {
   ws.leapfrogSteps += 1;
   const energyError = point.kinetic - point.logDensity - ws.h0;
   if (!(energyError <= divergenceThreshold)) {
@@ -361,7 +402,11 @@ function acceptPoint(ws: NutsWorkspace, point: PhasePoint): boolean {
   const total = logAddExp(ws.subtreeLogWeight, logWeight);
   ws.subtreeLogWeight = total;
   if (logWeight >= total || ws.rng!.uniform() < Math.exp(logWeight - total)) {
-    takeSample(point, ws.candidate);
+    const slot = ws.candidate;
+    slot.position.set(position);
+    slot.gradient.set(point.gradient);
+    slot.logDensity = point.logDensity;
+    slot.kinetic = point.kinetic;
   }
   return true;
 }

@@ -338,6 +338,123 @@ export function slabKickMergePair(
 }
 
 /**
+ * {@link slabKickMergePoint} fused also with the first half of the next leapfrog step
+ * (half = p + ε/2 g, qNext = q + ε m half; `qNext` differs from `q`). Bit-identical to the
+ * separate kernels.
+ */
+export function slabKickMergePointDrift(
+  s: Float64Array,
+  n: number,
+  half: number,
+  g: number,
+  m: number,
+  stepSize: number,
+  pOut: number,
+  vOut: number,
+  energy: KickEnergy,
+  l1: SlabMerge,
+  out: number,
+  q: number,
+  qNext: number,
+): number {
+  const h = 0.5 * stepSize;
+  const rho1 = l1.rhoFirst;
+  const vfs1 = l1.vFirstStart;
+  let twiceKinetic = 0;
+  let a1 = 0;
+  let b1 = 0;
+  for (let i = 0; i < n; i++) {
+    const gi = s[g + i];
+    const mi = s[m + i];
+    const pi = s[half + i] + h * gi;
+    const vi = mi * pi;
+    s[pOut + i] = pi;
+    s[vOut + i] = vi;
+    twiceKinetic += pi * vi;
+    const next = pi + h * gi;
+    s[half + i] = next;
+    s[qNext + i] = s[q + i] + stepSize * mi * next;
+    const s1 = s[rho1 + i] + pi;
+    s[out + i] = s1;
+    a1 += s1 * s[vfs1 + i];
+    b1 += s1 * vi;
+  }
+  energy.twiceKinetic = twiceKinetic;
+  return a1 > 0 && b1 > 0 ? 1 : 0;
+}
+
+/**
+ * {@link slabKickMergePair} fused also with the first half of the next leapfrog step
+ * (half = p + ε/2 g, qNext = q + ε m half; `qNext` differs from `q`). Bit-identical to the
+ * separate kernels.
+ */
+export function slabKickMergePairDrift(
+  s: Float64Array,
+  n: number,
+  half: number,
+  g: number,
+  m: number,
+  stepSize: number,
+  pOut: number,
+  vOut: number,
+  energy: KickEnergy,
+  l1: SlabMerge,
+  l2: SlabMerge,
+  out: number,
+  q: number,
+  qNext: number,
+): number {
+  const h = 0.5 * stepSize;
+  const rho1 = l1.rhoFirst;
+  const vfs1 = l1.vFirstStart;
+  const rho2 = l2.rhoFirst;
+  const vfs2 = l2.vFirstStart;
+  const pfe2 = l2.pFirstEnd;
+  const vfe2 = l2.vFirstEnd;
+  const pss2 = l2.pSecondStart;
+  const vss2 = l2.vSecondStart;
+  let twiceKinetic = 0;
+  let a1 = 0;
+  let b1 = 0;
+  let a20 = 0;
+  let b20 = 0;
+  let a21 = 0;
+  let b21 = 0;
+  let a22 = 0;
+  let b22 = 0;
+  for (let i = 0; i < n; i++) {
+    const gi = s[g + i];
+    const mi = s[m + i];
+    const pi = s[half + i] + h * gi;
+    const vi = mi * pi;
+    s[pOut + i] = pi;
+    s[vOut + i] = vi;
+    twiceKinetic += pi * vi;
+    const next = pi + h * gi;
+    s[half + i] = next;
+    s[qNext + i] = s[q + i] + stepSize * mi * next;
+    const s1 = s[rho1 + i] + pi;
+    a1 += s1 * s[vfs1 + i];
+    b1 += s1 * vi;
+    const f2 = s[rho2 + i];
+    const s2 = f2 + s1;
+    s[out + i] = s2;
+    const w2 = s[vfs2 + i];
+    a20 += s2 * w2;
+    b20 += s2 * vi;
+    const e21 = f2 + s[pss2 + i];
+    a21 += e21 * w2;
+    b21 += e21 * s[vss2 + i];
+    const e22 = s1 + s[pfe2 + i];
+    a22 += e22 * s[vfe2 + i];
+    b22 += e22 * vi;
+  }
+  energy.twiceKinetic = twiceKinetic;
+  if (!(a1 > 0 && b1 > 0)) return 0;
+  return a20 > 0 && b20 > 0 && a21 > 0 && b21 > 0 && a22 > 0 && b22 > 0 ? 2 : 1;
+}
+
+/**
  * {@link mergeSegments} with all checks, on a slab: the first segment's summed momentum
  * at `rhoFirst` becomes the merged sum; the second's is at `rhoSecond`, its last
  * velocity at `vSecondEnd`.
