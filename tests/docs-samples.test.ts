@@ -41,6 +41,9 @@ const scratch = path.join(root, '.vitest-docs-samples');
 const coveredElsewhere: Record<string, string> = {
   'custom-likelihood.md': 'tests/model-robust-regression.test.ts',
   'report.md': 'packages/report/test/docsExample.test.ts',
+  'fitting-radial-velocities.md': 'tests/models-examples.test.ts',
+  'fitting-transits.md': 'tests/models-examples.test.ts',
+  'joint-fit.md': 'tests/models-examples.test.ts',
 };
 
 type Kind = 'run' | 'output' | 'types' | 'file' | 'excerpt' | 'fragment' | 'demo-output';
