@@ -1,4 +1,4 @@
-export * from './errors.js';
+export { FitDataError, FitSettingsError } from './errors.js';
 export type {
   GeometryOption,
   JointModelInput,
