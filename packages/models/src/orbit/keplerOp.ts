@@ -6,6 +6,7 @@
  *   dE/dM = 1 / (1 - e cos E),  dE/de = sin E / (1 - e cos E).
  */
 import * as tf from '@tensorflow/tfjs';
+import { sideChannelMismatch } from '../sideChannel.js';
 import { OrbitParameterError } from './errors.js';
 import { solveKeplerInto } from './kepler.js';
 
@@ -17,8 +18,7 @@ export interface KeplerOpExact {
   eccentricity?: number | Float64Array;
 }
 
-/** Largest allowed |exact - tensor| / max(1, |exact|): catches stale or misaligned side channels. */
-export const SIDE_CHANNEL_TOLERANCE = 1e-4;
+export { SIDE_CHANNEL_TOLERANCE } from '../sideChannel.js';
 
 /**
  * Checks that the float64 side-channel values agree with the float32 tensor values
@@ -28,11 +28,9 @@ export function checkedSideChannel(field: string, exact: Float64Array, tensorVal
   if (exact.length !== tensorValues.length) {
     throw new OrbitParameterError(`${field}.length`, exact.length, `${tensorValues.length} (the tensor's size)`);
   }
-  for (let i = 0; i < exact.length; i++) {
-    const x = exact[i];
-    if (!(Math.abs(x - tensorValues[i]) <= SIDE_CHANNEL_TOLERANCE * Math.max(1, Math.abs(x)))) {
-      throw new OrbitParameterError(`${field}[${i}]`, x, `a float64 value matching the tensor's ${tensorValues[i]}`);
-    }
+  const i = sideChannelMismatch(exact, tensorValues);
+  if (i >= 0) {
+    throw new OrbitParameterError(`${field}[${i}]`, exact[i], `a float64 value matching the tensor's ${tensorValues[i]}`);
   }
   return exact;
 }

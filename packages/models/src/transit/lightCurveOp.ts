@@ -10,23 +10,22 @@
  * they agree with the tensor's values; the gradient still flows through the tensor.
  */
 import * as tf from '@tensorflow/tfjs';
+import { SIDE_CHANNEL_TOLERANCE, sideChannelMismatch } from '../sideChannel.js';
 import { TransitWorkspaceError } from './errors.js';
 import type { LightCurveKernel } from './lightCurve.js';
 import type { LightCurveLikelihood } from './lightCurveLikelihood.js';
 
-/** Relative agreement required between the float64 side channel and the tensor. */
-export const TRANSIT_SIDE_CHANNEL_TOLERANCE = 1e-4;
+/** Relative agreement required between the float64 side channel and the tensor (shared with the orbit ops). */
+export const TRANSIT_SIDE_CHANNEL_TOLERANCE = SIDE_CHANNEL_TOLERANCE;
 
 function parameters(field: string, tensorValues: ArrayLike<number>, exact: Float64Array | undefined): Float64Array {
   if (!exact) return Float64Array.from(tensorValues);
   if (!(exact instanceof Float64Array) || exact.length !== tensorValues.length) {
     throw new TransitWorkspaceError(`${field}.length`, exact, `a Float64Array of length ${tensorValues.length} (the tensor's size)`);
   }
-  for (let i = 0; i < exact.length; i++) {
-    const x = exact[i];
-    if (!(Math.abs(x - tensorValues[i]) <= TRANSIT_SIDE_CHANNEL_TOLERANCE * Math.max(1, Math.abs(x)))) {
-      throw new TransitWorkspaceError(`${field}[${i}]`, x, `a float64 value matching the tensor's ${tensorValues[i]}`);
-    }
+  const i = sideChannelMismatch(exact, tensorValues);
+  if (i >= 0) {
+    throw new TransitWorkspaceError(`${field}[${i}]`, exact[i], `a float64 value matching the tensor's ${tensorValues[i]}`);
   }
   return Float64Array.from(exact);
 }
