@@ -5,7 +5,7 @@ import { ORIGIN, lightCurve, rvData, transitWindows, twoPlanets } from './builde
 
 /**
  * The whole log-density of each builder, as the sampler sees it (priors, Jacobians of
- * the centred supports, the unit disk, the signed impact parameter, the duration-scaled
+ * the centred supports, the unit disk, the impact fraction b/(1 + k), the conjunction sampled near the data, the duration-scaled
  * density, the fused likelihoods), has a gradient equal to float64 central differences
  * (standard calculus; step 1e-5 in the sampler's coordinates, whose unit is about one
  * posterior standard deviation, so truncation error is ~1e-10 and rounding ~1e-7).

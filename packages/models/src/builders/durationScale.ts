@@ -22,7 +22,7 @@ export const DS_H = 3;
 export const DS_KE = 4;
 
 /**
- * Writes s and ∂s/∂b, ∂s/∂k, ∂s/∂h, ∂s/∂k_e into out[0..4] for a signed impact parameter
+ * Writes s and ∂s/∂b, ∂s/∂k, ∂s/∂h, ∂s/∂k_e into out[0..4] for an impact parameter
  * b, radius ratio k and eccentricity vector (h, k_e). Returns false when |b| ≥ 1 + k or
  * e ≥ 1 (s would be 0 or undefined).
  */

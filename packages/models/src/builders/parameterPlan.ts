@@ -11,7 +11,7 @@ import { FitSettingsError } from './errors.js';
 import type { PhysicalLayout } from './physicalLayout.js';
 import { resolveScalarPrior } from './priorInput.js';
 import type { PreparedSystem } from './prepareInput.js';
-import { centralDuration, estimateDepth, fitSinusoids, scaledAxisFromDensity } from './startingEstimates.js';
+import { centralDuration, estimateDepth, fitSinusoids, scaledAxisFromDensity, transitTimingCentre, weightedMeanTime } from './startingEstimates.js';
 
 /** Density of the Sun, g/cm³ (nominal mass and radius, IAU 2015 B3, with G of CODATA 2018). */
 export const SOLAR_DENSITY_CGS = 1.40978;
@@ -41,11 +41,24 @@ export interface PlanEntry {
   /** Fixed value(s), or null when sampled. */
   readonly fixed: number[] | null;
   /**
-   * Only for impact parameters: the sampled coordinate is a signed b/(1 + k), uniform on
-   * (−1, 1), and Φ holds the signed b (negative for i > 90°, which the light curve
-   * cannot tell from i < 90°); `radiusSlot` is the slot of k.
+   * Only for impact parameters: the sampled coordinate is β = b/(1 + k), uniform on
+   * (0, 1), and Φ holds b = β (1 + k). (A signed β on (−1, 1), the sign of cos i, was
+   * tried: the two mirror-image modes made the adapted metric about 8 times too wide
+   * for the curvature within either mode, and NUTS needed 25% more steps per draw on
+   * the demo's model.) `radiusSlot` is the slot of k.
    */
   readonly impactOf?: { readonly radiusSlot: number };
+  /**
+   * Only for conjunction times: the sampled coordinate is T = tc + cycles · P, the
+   * conjunction nearest the middle of the data that time it (in-transit points for a
+   * transiting planet, radial velocities otherwise), where T and P are nearly
+   * uncorrelated; tc, the conjunction nearest the epoch, may lie many periods away and
+   * then has a correlation with P close to −1, which a diagonal metric cannot follow.
+   * Φ holds tc = T − cycles · P (Jacobian 1). `prior` is the prior of T; `correction`,
+   * when set, is an unbounded prior given for tc itself, and the model adds
+   * ln p(tc) − ln p(T) so that it holds exactly.
+   */
+  readonly cycleShifted?: { readonly cycles: number; readonly periodSlot: number; readonly correction: ScalarPrior | null };
   /** The key that replaces the prior in `priors` (null: not replaceable). */
   readonly priorKey: string | null;
   /**
@@ -193,23 +206,32 @@ export function planParameters(system: PreparedSystem): ParameterPlan {
       guess: [p.period],
     });
 
-    // Conjunction time, moved to the conjunction nearest the epoch.
+    // Conjunction time: tc, the conjunction nearest the epoch, is what Φ and the trace
+    // hold; the sampled coordinate is the conjunction nearest the data that time it.
     let tcRel: number;
     let sigmaTc: number;
     let tcNote: string;
     if (p.tc !== undefined) {
       const n = Math.round((epoch - p.tc) / p.period);
       tcRel = p.tc + n * p.period - epoch;
+    } else {
+      tcRel = sinusoids ? sinusoids.conjunctions[i] : 0;
+    }
+    const centre = p.transiting ? transitTimingCentre(lightCurves, epoch, p.period, tcRel, T) : rv ? weightedMeanTime(rv.times, rv.errors) - epoch : NaN;
+    const cycles = Number.isFinite(centre) ? Math.round((centre - tcRel) / p.period) : 0;
+    const sampledRel = tcRel + cycles * p.period;
+    if (p.tc !== undefined) {
+      const m = Math.round((epoch + sampledRel - p.tc) / p.period);
       const s0 = p.tcUncertainty ?? (p.transiting ? T / 2 : p.period / 4);
-      sigmaTc = Math.sqrt(s0 * s0 + (n * sigmaP) ** 2);
-      tcNote = `the given time moved by ${n} periods to the epoch; sd = √(σ₀² + (n σ_P)²) with σ₀ = ${
+      sigmaTc = Math.sqrt(s0 * s0 + (m * sigmaP) ** 2);
+      tcNote = `the given time moved by ${m} periods; sd = √(σ₀² + (n σ_P)²) with σ₀ = ${
         p.tcUncertainty !== undefined ? 'the given uncertainty' : p.transiting ? 'half the expected duration' : 'P/4'
       }`;
     } else {
-      tcRel = sinusoids ? sinusoids.conjunctions[i] : 0;
       sigmaTc = p.period / 4;
       tcNote = 'centred on a sinusoid fit to the radial velocities; sd = P/4';
     }
+    const where = cycles === 0 ? '' : ` for the conjunction ${cycles} periods after tc_${L} (sampled there, in the middle of the ${p.transiting ? 'transits' : 'radial velocities'}, where it is nearly uncorrelated with the period)`;
     layout.tc[i] = slot();
     add({
       name: `tc_${L}`,
@@ -218,9 +240,10 @@ export function planParameters(system: PreparedSystem): ParameterPlan {
       unit: 'd',
       lower: -Infinity,
       upper: Infinity,
-      prior: priors.normal(tcRel, sigmaTc),
-      note: `normal(${fmt(tcRel)}, ${fmt(sigmaTc)}) days since the epoch: ${tcNote}`,
+      prior: priors.normal(sampledRel, sigmaTc),
+      note: `normal(${fmt(sampledRel)}, ${fmt(sigmaTc)}) days since the epoch${where}: ${tcNote}`,
       guess: [tcRel],
+      ...(cycles === 0 ? {} : { cycleShifted: { cycles, periodSlot: layout.period[i], correction: null } }),
     });
 
     // Eccentricity vector (√e cos ω, √e sin ω) on the unit disk.
@@ -297,8 +320,8 @@ export function planParameters(system: PreparedSystem): ParameterPlan {
         unit: 'R_star',
         lower: 0,
         upper: Infinity,
-        prior: priors.uniform(-1, 1),
-        note: 'uniform on [0, 1 + k), so that the planet always transits: sampled as a signed b/(1 + k) uniform on (−1, 1) (the sign of cos i, to which the data are blind; the trace shows |b|)',
+        prior: priors.uniform(0, 1),
+        note: 'uniform on [0, 1 + k), so that the planet always transits: sampled as b/(1 + k) uniform on (0, 1)',
         guess: [Math.min(p.impactParameter ?? 0.3, 0.95 * (1 + kGuess))],
         impactOf: { radiusSlot: layout.radiusRatio[i] },
         priorKey: null,
@@ -565,6 +588,12 @@ function applyUserSettings(entries: PlanEntry[], system: PreparedSystem): void {
         throw new FitSettingsError(`priors.${key}`, prior.description, 'a prior on the eccentricity whose support starts at 0 (it may end below 1)');
       }
       entries[i] = { ...e, prior: eccentricityDiskPrior(prior), note: `eccentricity ~ ${prior.description} (given), omega uniform` };
+    } else if (e.cycleShifted && !Number.isFinite(prior.lower) && !Number.isFinite(prior.upper)) {
+      entries[i] = { ...e, note: `${prior.description} (given)`, cycleShifted: { ...e.cycleShifted, correction: prior } };
+    } else if (e.cycleShifted) {
+      // A bounded prior on tc bounds the sampled coordinate itself: tc is sampled directly.
+      const { cycleShifted: _, ...rest } = e;
+      entries[i] = { ...rest, prior, note: `${prior.description} (given)`, guess: [...e.guess] };
     } else if (e.durationScaled) {
       entries[i] = { ...e, prior, note: `${prior.description} (given)`, durationScaled: { ...e.durationScaled, correction: prior } };
     } else {

@@ -1,15 +1,18 @@
 /**
  * The map from the compiled model's constrained vector θ (the sampled parameters in
  * their sampled form) to the physical vector Φ, its inverse, and the pull-back of ∂/∂Φ
- * to ∂/∂θ. Most entries are copied; two are sampled in a transformed form:
+ * to ∂/∂θ. Most entries are copied; three are sampled in a transformed form:
  *
- * 1. an impact parameter as β = b/(1 + k) on (−1, 1): b = β (1 + k), so ∂/∂β =
+ * 0. a conjunction time as T = tc + c P, the conjunction c periods after tc
+ *    (`cycleShifted`): tc = T − c P, so ∂/∂T = ∂/∂tc and ∂/∂P gains −c ∂/∂tc;
+ * 1. an impact parameter as β = b/(1 + k) on (0, 1): b = β (1 + k), so ∂/∂β =
  *    (1 + k) ∂/∂b and ∂/∂k gains β ∂/∂b;
  * 2. the stellar density and a/R_* as x₀ = x/s^p (`durationScale.ts`): x = x₀ s^p, with s
  *    from b, k and the eccentricity vector of the reference planet, so ∂/∂x₀ = s^p ∂/∂x
  *    and each input y of s gains p (x/s) (∂s/∂y) ∂/∂x.
  *
- * The fill runs copies, then 1, then 2; the pull-back runs 2, 1, then copies. Priors: for
+ * The fill runs copies, then 0, 1, 2; the pull-back runs 2, 1, 0, then copies. Priors: a
+ * prior given for tc itself is made exact by adding ln p(tc) − ln p(T). For
  * density and a/R_* the default log-uniform prior is placed on x₀ (scale-free, so also
  * log-uniform in x away from its ends), and a prior given for x itself is made exact by
  * adding ln p(x) − ln p(x₀) + p ln s.
@@ -42,13 +45,26 @@ interface DurationStage {
   readonly s: Float64Array; // s, ∂s/∂b, ∂s/∂k, ∂s/∂h, ∂s/∂k_e at the last fill
 }
 
+interface ShiftStage {
+  readonly n: number;
+  readonly slot: number;
+  readonly periodSlot: number;
+  readonly cycles: number;
+  readonly prior: ScalarPrior;
+  readonly correction: ScalarPrior | null;
+}
+
 /** Builds the mapping for `entries` (the sampled ones) with θ offsets `at`. */
 export function createPhysicalMapping(entries: readonly PlanEntry[], at: readonly number[]): PhysicalMapping {
   const plain: number[] = [];
   const impacts: number[] = [];
   const durations: DurationStage[] = [];
+  const shifts: ShiftStage[] = [];
   entries.forEach((e, n) => {
-    if (e.impactOf) impacts.push(n);
+    if (e.cycleShifted) {
+      const c = e.cycleShifted;
+      shifts.push({ n, slot: e.slot, periodSlot: c.periodSlot, cycles: c.cycles, prior: e.prior as ScalarPrior, correction: c.correction });
+    } else if (e.impactOf) impacts.push(n);
     else if (e.durationScaled) {
       const d = e.durationScaled;
       durations.push({
@@ -68,6 +84,7 @@ export function createPhysicalMapping(entries: readonly PlanEntry[], at: readonl
         const e = entries[n];
         for (let k = 0; k < e.size; k++) phi[e.slot + k] = theta[at[n] + k];
       }
+      for (const c of shifts) phi[c.slot] = theta[at[c.n]] - c.cycles * phi[c.periodSlot];
       for (const n of impacts) {
         const e = entries[n];
         phi[e.slot] = theta[at[n]] * (1 + phi[e.impactOf!.radiusSlot]);
@@ -81,6 +98,11 @@ export function createPhysicalMapping(entries: readonly PlanEntry[], at: readonl
     },
     correction(theta, phi, gPhi) {
       let total = 0;
+      for (const c of shifts) {
+        if (!c.correction) continue;
+        total += c.correction.logDensity(phi[c.slot]) - c.prior.logDensity(theta[at[c.n]]);
+        if (gPhi) gPhi[c.slot] += c.correction.logDensityDerivative(phi[c.slot]);
+      }
       for (const c of durations) {
         if (!c.correction) continue;
         const x = phi[c.slot];
@@ -121,6 +143,11 @@ export function createPhysicalMapping(entries: readonly PlanEntry[], at: readonl
         gTheta[at[n]] = gb * (1 + phi[kSlot]);
         gPhi[kSlot] += gb * theta[at[n]];
       }
+      for (const c of shifts) {
+        const g = gPhi[c.slot];
+        gTheta[at[c.n]] = c.correction ? g - c.prior.logDensityDerivative(theta[at[c.n]]) : g;
+        gPhi[c.periodSlot] -= c.cycles * g;
+      }
       for (const n of plain) {
         const e = entries[n];
         for (let k = 0; k < e.size; k++) gTheta[at[n] + k] = gPhi[e.slot + k];
@@ -131,6 +158,7 @@ export function createPhysicalMapping(entries: readonly PlanEntry[], at: readonl
         const e = entries[n];
         for (let k = 0; k < e.size; k++) theta[at[n] + k] = phi[e.slot + k];
       }
+      for (const c of shifts) theta[at[c.n]] = phi[c.slot] + c.cycles * phi[c.periodSlot];
       for (const n of impacts) {
         const e = entries[n];
         theta[at[n]] = phi[e.slot] / (1 + phi[e.impactOf!.radiusSlot]);

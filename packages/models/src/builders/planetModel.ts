@@ -94,6 +94,7 @@ export interface PlanetSystemModel extends Target {
 
 function declaredName(e: PlanEntry): string {
   if (e.impactOf) return e.name.replace('impactParameter_', 'impactFraction_');
+  if (e.cycleShifted) return e.name.replace('tc_', 'conjunctionNearData_');
   if (e.durationScaled) return e.name === 'starDensity' ? 'centralTransitDensity' : e.name.replace('scaledSemiMajorAxis_', 'centralTransitAxis_');
   return e.name;
 }
@@ -102,7 +103,7 @@ function declaredName(e: PlanEntry): string {
 function baseSupport(e: PlanEntry): Support {
   // An eccentricity prior ending below 1 sets the disk's radius (√e_max).
   if (e.size === 2) return supports.unitDisk(Math.sqrt(Math.min(1, e.prior.upper)));
-  if (e.impactOf) return supports.interval(-1, 1);
+  if (e.impactOf) return supports.interval(0, 1);
   const prior = e.prior as ScalarPrior;
   const lo = Math.max(e.lower, prior.lower);
   const hi = Math.min(e.upper, prior.upper);
@@ -338,7 +339,7 @@ export async function buildPlanetModel(system: PreparedSystem): Promise<PlanetSy
         const declaredKey = err.field.replace(/^values\./, '');
         const d = declared.find((x) => x.name === declaredKey);
         const field = d ? `values.${d.entry.columns.join(', ')}` : err.field;
-        const how = d?.entry.impactOf ? ' (sampled as b/(1 + k))' : d?.entry.durationScaled ? ' (sampled divided by the duration factor s)' : '';
+        const how = d?.entry.impactOf ? ' (sampled as b/(1 + k))' : d?.entry.cycleShifted ? ` (sampled as the conjunction ${d.entry.cycleShifted.cycles} periods later)` : d?.entry.durationScaled ? ' (sampled divided by the duration factor s)' : '';
         throw new FitSettingsError(field, err.value, `${err.expected ?? err.message}${how}`);
       }
     },

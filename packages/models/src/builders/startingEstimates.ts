@@ -154,3 +154,49 @@ export function estimateDepth(
   }
   return sw > 0 ? 1 - swf / sw : NaN;
 }
+
+/** Mean of times weighted by 1/σ², days in the data's time system. */
+export function weightedMeanTime(times: ArrayLike<number>, errors: ArrayLike<number>): number {
+  let sw = 0;
+  let swt = 0;
+  for (let i = 0; i < times.length; i++) {
+    const w = 1 / (errors[i] * errors[i]);
+    sw += w;
+    swt += w * times[i];
+  }
+  return swt / sw;
+}
+
+/**
+ * The time that the light curves' transits of one planet centre on (days relative to the
+ * epoch): the 1/σ²-weighted mean time of the points within one expected duration of a
+ * predicted mid-transit (those that time the transits), or of all points when none is.
+ * A conjunction near it is nearly uncorrelated with the period in the posterior (the
+ * least-squares intercept at the weighted mean of the abscissae; common practice).
+ */
+export function transitTimingCentre(
+  lightCurves: readonly PreparedLightCurve[],
+  epoch: number,
+  period: number,
+  tc: number,
+  duration: number,
+): number {
+  let sw = 0;
+  let swt = 0;
+  let swAll = 0;
+  let swtAll = 0;
+  for (const lc of lightCurves) {
+    for (let i = 0; i < lc.times.length; i++) {
+      const t = lc.times[i] - epoch;
+      const w = 1 / (lc.errors[i] * lc.errors[i]);
+      swAll += w;
+      swtAll += w * t;
+      let dt = t - tc;
+      dt -= period * Math.round(dt / period);
+      if (Math.abs(dt) > duration) continue;
+      sw += w;
+      swt += w * t;
+    }
+  }
+  return sw > 0 ? swt / sw : swAll > 0 ? swtAll / swAll : NaN;
+}
