@@ -6,8 +6,8 @@
  *   npx tsx --conditions=source examples/rv-fit.ts
  */
 import { pathToFileURL } from 'node:url';
-import { createRandomStream, priors, runChains, type RunResult } from '@apsis/core';
-import { splitRhat } from '@apsis/diagnostics';
+import { createRandomStream, priors, runChains } from '@apsis/core';
+import { summarizeDraws } from '@apsis/diagnostics';
 import { createRvModel, fitPanels, simulateRadialVelocities, type DataPanel, type RvDataInput } from '@apsis/models';
 
 /** Time origin of the invented observations (days, in the data's own time system). */
@@ -50,7 +50,8 @@ export interface ColumnSummary {
   /** Central 99% interval. */
   readonly low: number;
   readonly high: number;
-  readonly rhat: number;
+  /** Rank-normalised split R-hat; null for a constant column. */
+  readonly rhat: number | null;
 }
 
 export async function main(options: RvFitOptions = {}): Promise<{ summary: ColumnSummary[]; panels: DataPanel[]; epoch: number; divergences: number }> {
@@ -75,7 +76,17 @@ export async function main(options: RvFitOptions = {}): Promise<{ summary: Colum
   }
 
   const result = await runChains(model, { chains, warmup, draws, seed });
-  const summary = summarise(result, model.units);
+  // Mean, central 99% interval and R-hat of every trace column.
+  const { names, values } = result.outputs!;
+  const table = summarizeDraws(values, { dim: names.length, names, quantiles: [0.005, 0.995] });
+  const summary: ColumnSummary[] = table.rows.map((row) => ({
+    name: row.name,
+    unit: model.units[row.name],
+    mean: row.mean,
+    low: row.quantiles[0].value,
+    high: row.quantiles[1].value,
+    rhat: row.rhat,
+  }));
   // Data and model curves for a report (`fits` of @apsis/report).
   const panels = fitPanels(model, result, { maxDraws: 30 });
   const divergences = result.divergences.reduce((a, b) => a + b, 0);
@@ -83,29 +94,11 @@ export async function main(options: RvFitOptions = {}): Promise<{ summary: Colum
   if (!quiet) {
     console.log(`\n${divergences} divergent transitions; column, mean, 99% interval, R-hat:`);
     for (const s of summary) {
-      console.log(`  ${s.name.padEnd(22)} ${s.mean.toPrecision(6).padStart(12)} [${s.low.toPrecision(6)}, ${s.high.toPrecision(6)}] ${s.unit.padEnd(8)} ${s.rhat.toFixed(3)}`);
+      console.log(`  ${s.name.padEnd(22)} ${s.mean.toPrecision(6).padStart(12)} [${s.low.toPrecision(6)}, ${s.high.toPrecision(6)}] ${s.unit.padEnd(8)} ${s.rhat === null ? 'constant' : s.rhat.toFixed(3)}`);
     }
     console.log(`\npanels: ${panels.map((p) => p.title).join('; ')}`);
   }
   return { summary, panels, epoch: model.epoch, divergences };
-}
-
-/** Mean, central 99% interval and split R-hat of every trace column. */
-function summarise(result: RunResult, units: Readonly<Record<string, string>>): ColumnSummary[] {
-  const { names, values } = result.outputs!;
-  return names.map((name, c) => {
-    const chains = values.map((v) => Float64Array.from({ length: v.length / names.length }, (_, i) => v[i * names.length + c]));
-    const all = Float64Array.from(chains.flatMap((x) => Array.from(x))).sort();
-    const mean = all.reduce((s, x) => s + x, 0) / all.length;
-    return {
-      name,
-      unit: units[name],
-      mean,
-      low: all[Math.floor(0.005 * (all.length - 1))],
-      high: all[Math.ceil(0.995 * (all.length - 1))],
-      rhat: splitRhat(chains),
-    };
-  });
 }
 
 if (import.meta.url === pathToFileURL(process.argv[1] ?? '').href) {

@@ -1,6 +1,6 @@
 import { priors } from '@apsis/core';
 import { describe, expect, it } from 'vitest';
-import { createJointModel, type PlanetSystemModel } from '../src/index.js';
+import { createJointModel, type JointModelInput, type PlanetSystemModel } from '../src/index.js';
 import { lightCurve, rvData, transitWindows, twoPlanets } from './builderFixtures.js';
 
 /**
@@ -12,7 +12,7 @@ import { lightCurve, rvData, transitWindows, twoPlanets } from './builderFixture
  */
 
 /** Radial velocities over 400 days and transits only in the first 30: the epoch lies ~45 periods from the transits. */
-async function farEpochModel(extra: { priors?: Record<string, unknown> } = {}): Promise<PlanetSystemModel> {
+async function farEpochModel(extra: { priors?: JointModelInput['priors'] } = {}): Promise<PlanetSystemModel> {
   const [b, c] = twoPlanets;
   return createJointModel({
     rv: rvData(40, 'conj-rv'),
