@@ -11,9 +11,18 @@
  * averages of the exact partials.
  *
  * Speed: for each planet a window around conjunction outside which no overlap is
- * possible is computed once per call (`transitParameters.ts`); a point whose exposure
- * misses it costs one floor and a few flops. Inside, each sub-sample costs one Kepler
- * solve and one flux evaluation (two short arithmetic–geometric-mean iterations).
+ * possible is computed once per call (`transitParameters.ts`). The times are sorted
+ * once, at construction (a permutation; the identity for sorted times), and each
+ * planet's windows are met by a sweep through the sorted times: from a point past the
+ * current window, the next window follows from one division, and the first point that
+ * can reach it from a galloping search, so points whose exposure misses every window
+ * cost nothing each (the search that skips a run of d of them costs about 2 log2 d
+ * comparisons). The sweep only selects candidates (a superset, by a margin far above
+ * rounding); each candidate then passes the per-point phase test a scan over all
+ * points would apply, so every point's flux and partials are bit-for-bit those of
+ * that scan, and for unsorted times only the order of the sums over points differs.
+ * Inside, each sub-sample costs one Kepler solve and one flux evaluation (two
+ * short arithmetic–geometric-mean iterations).
  *
  * Parameter vector: `transitParameters.ts` (7 slots per planet, then u1, u2).
  */
@@ -41,6 +50,13 @@ import {
 
 /** Per-point partials stored by {@link LightCurveKernel.fluxKeepingJacobian}. */
 const ROW = 9;
+/**
+ * Points per call of the per-planet point loop for a planet without a window. Short
+ * calls let V8 compile the loop as an ordinary function rather than rely on on-stack
+ * replacement of one long loop, whose code was measured in some fresh processes to run
+ * several times slower (Node 20; see lightCurveLikelihood.ts).
+ */
+const CHUNK = 1024;
 
 /** Options of {@link createLightCurveKernel}. */
 export interface LightCurveOptions {
@@ -105,6 +121,61 @@ const optionsSchema = z.object({
   scale: z.enum(['scaledSemiMajorAxis', 'stellarDensity']).optional(),
 });
 
+/** Times in ascending order with the permutation that sorts them, for the window sweep. */
+interface TimeSweep {
+  /** times[order[q]], ascending. */
+  readonly sorted: Float64Array;
+  readonly order: Int32Array;
+  /**
+   * How far (days) a window's candidate range reaches beyond the window: the longest
+   * half-exposure plus a margin for the rounding of the per-point phase test, many
+   * orders of magnitude above it (that test's error is a few ulps of |t|, |tc| and P).
+   */
+  pad(period: number, tc: number): number;
+}
+
+function createTimeSweep(times: Float64Array, maxHalf: number): TimeSweep {
+  const N = times.length;
+  const order = Int32Array.from({ length: N }, (_, i) => i);
+  let ascending = true;
+  for (let i = 1; i < N; i++) if (!(times[i] >= times[i - 1])) ascending = false;
+  if (!ascending) order.sort((a, b) => times[a] - times[b] || a - b);
+  const sorted = Float64Array.from(order, (i) => times[i]);
+  const span = N > 0 ? Math.max(Math.abs(sorted[0]), Math.abs(sorted[N - 1])) : 0;
+  return {
+    sorted,
+    order,
+    pad: (period, tc) => maxHalf + 1e-9 * (span + Math.abs(tc) + period),
+  };
+}
+
+/**
+ * The first index ≥ q with sorted[index] ≥ value (> value when `strict`), or N: steps
+ * of 1, 2, 4, … from q, then bisection, so a jump over d points costs about 2 log2 d
+ * comparisons.
+ */
+function gallop(sorted: Float64Array, q: number, value: number, strict: boolean): number {
+  const N = sorted.length;
+  // "Before value": x < value, or x ≤ value when strict.
+  if (q >= N || !(strict ? sorted[q] <= value : sorted[q] < value)) return q;
+  let lo = q; // sorted[lo] is before value
+  let step = 1;
+  let hi = q + step;
+  while (hi < N && (strict ? sorted[hi] <= value : sorted[hi] < value)) {
+    lo = hi;
+    step *= 2;
+    hi = q + step;
+  }
+  if (hi > N) hi = N;
+  // sorted[lo] is before value; sorted[hi] is not (or hi = N).
+  while (hi - lo > 1) {
+    const mid = (lo + hi) >>> 1;
+    if (strict ? sorted[mid] <= value : sorted[mid] < value) lo = mid;
+    else hi = mid;
+  }
+  return hi;
+}
+
 function fail(field: string, value: unknown, expected: string): never {
   throw new LightCurveDataError(field, undefined, value, expected);
 }
@@ -147,10 +218,13 @@ export function createLightCurveKernel(options: LightCurveOptions): LightCurveKe
   const invNs = 1 / ns;
   const halfExposure = new Float64Array(N);
   const subStep = new Float64Array(N);
+  let maxHalf = 0;
   for (let i = 0; i < N; i++) {
     halfExposure[i] = ns > 1 ? exposure[i] / 2 : 0;
     subStep[i] = exposure[i] / ns;
+    if (halfExposure[i] > maxHalf) maxHalf = halfExposure[i];
   }
+  const sweep = createTimeSweep(times, maxHalf);
 
   const dim = transitParameterCount(planets);
   const uAt = planets * TRANSIT_PLANET_STRIDE;
@@ -191,119 +265,56 @@ export function createLightCurveKernel(options: LightCurveOptions): LightCurveKe
   }
 
   /**
-   * The one loop. mode 0: flux only; 1: flux and grad = Jᵀ weights; 2: flux and the
-   * sparse Jacobian kept. Parameters must have been decoded by `check`.
+   * The light curve of all planets. mode 0: flux only; 1: flux and grad = Jᵀ weights;
+   * 2: flux and the sparse Jacobian kept. Parameters must have been decoded by `check`.
+   * Per planet, the candidate points (all of them without a window) go to
+   * {@link planetPoints} in runs: one per window, chunks of CHUNK without one.
    */
   function run(params: Float64Array, mode: 0 | 1 | 2, weights: Float64Array | null, grad: Float64Array | null, out: Float64Array): void {
     const u1 = params[uAt];
     const u2 = params[uAt + 1];
-    const withPartials = mode !== 0;
     out.fill(1);
     if (grad) grad.fill(0);
+    const sorted = sweep.sorted;
     for (let p = 0; p < planets; p++) {
       const o = p * TD_STRIDE;
-      const k = decoded[o + TD_K];
-      const reach = 1 + k;
       const P = decoded[o + TD_PERIOD];
       const tc = decoded[o + TD_TC];
       const windowState = decoded[o + TD_WINDOWED];
-      if (windowState === 2) {
-        // This planet never overlaps the star: flux 1 and zero partials everywhere.
-        jacCount[p] = 0;
-        continue;
-      }
-      const windowed = windowState === 1;
-      const lo = decoded[o + TD_WINDOW_LO];
-      const width = decoded[o + TD_WINDOW_HI] - lo;
-      const rows = jacRows[p];
-      const index = jacIndex[p];
-      let count = 0;
+      jacCount[p] = 0;
       planetGrad.fill(0);
-      for (let i = 0; i < N; i++) {
-        const t = times[i];
-        const h = halfExposure[i];
-        if (windowed) {
-          let u = t - tc - lo + h;
-          u -= P * Math.floor(u / P);
-          if (u > width + 2 * h) continue;
-        }
-        const step = subStep[i];
-        let deficit = 0;
-        let touched = false;
-        let a0 = 0;
-        let a1 = 0;
-        let a2 = 0;
-        let a3 = 0;
-        let a4 = 0;
-        let a5 = 0;
-        let a6 = 0;
-        let a7 = 0;
-        let a8 = 0;
-        for (let j = 0; j < ns; j++) {
-          let tj = t;
-          if (ns > 1) {
-            tj = t - h + step * (j + 0.5);
-            if (windowed) {
-              let v = tj - tc - lo;
-              v -= P * Math.floor(v / P);
-              if (v > width) continue;
-            }
+      if (windowState === 0) {
+        for (let from = 0; from < N; from += CHUNK) planetPoints(p, u1, u2, mode, weights, out, from, Math.min(N, from + CHUNK), false);
+      } else if (windowState === 1) {
+        // Window m is [tc + lo + mP, tc + hi + mP]; its candidates are the sorted times
+        // within `pad` of it.
+        const pad = sweep.pad(P, tc);
+        const first = tc + decoded[o + TD_WINDOW_LO] - pad;
+        const last = tc + decoded[o + TD_WINDOW_HI] + pad;
+        let q = 0;
+        while (q < N) {
+          // The first window whose candidate range ends at or after sorted[q].
+          const tq = sorted[q];
+          let m = Math.ceil((tq - last) / P);
+          if (last + m * P < tq) m++;
+          const from = first + m * P;
+          const until = last + m * P;
+          if (tq < from) {
+            q = gallop(sorted, q, from, false);
+            if (q >= N) break;
           }
-          const inFront = separationInto(tj, decoded, o, sep, 0);
-          const zj = sep[0];
-          if (!inFront || zj >= reach) continue;
-          touched = true;
-          if (!withPartials) {
-            deficit += 1 - quadraticFluxUnchecked(zj, k, u1, u2);
-            continue;
-          }
-          separationPartialsInto(decoded, o, sep, 1);
-          deficit += 1 - quadraticFluxPartialsUnchecked(zj, k, u1, u2, fp, 0);
-          const dz = fp[1];
-          a0 += dz * sep[1];
-          a1 += dz * sep[2];
-          a2 += dz * sep[3];
-          a3 += dz * sep[4];
-          a4 += dz * sep[5];
-          a5 += dz * sep[6];
-          a6 += fp[2];
-          a7 += fp[3];
-          a8 += fp[4];
-        }
-        if (!touched) continue;
-        out[i] -= deficit * invNs;
-        if (mode === 1) {
-          const w = (weights as Float64Array)[i] * invNs;
-          planetGrad[0] += w * a0;
-          planetGrad[1] += w * a1;
-          planetGrad[2] += w * a2;
-          planetGrad[3] += w * a3;
-          planetGrad[4] += w * a4;
-          planetGrad[5] += w * a5;
-          planetGrad[6] += w * a6;
-          planetGrad[7] += w * a7;
-          planetGrad[8] += w * a8;
-        } else if (mode === 2) {
-          const r = count * ROW;
-          index[count++] = i;
-          rows[r] = a0 * invNs;
-          rows[r + 1] = a1 * invNs;
-          rows[r + 2] = a2 * invNs;
-          rows[r + 3] = a3 * invNs;
-          rows[r + 4] = a4 * invNs;
-          rows[r + 5] = a5 * invNs;
-          rows[r + 6] = a6 * invNs;
-          rows[r + 7] = a7 * invNs;
-          rows[r + 8] = a8 * invNs;
+          const end = gallop(sorted, q, until, true);
+          if (end > q) planetPoints(p, u1, u2, mode, weights, out, q, end, true);
+          q = end;
         }
       }
-      jacCount[p] = count;
+      // windowState 2: the planet never overlaps the star, flux 1 and zero partials.
       keptChain[2 * p] = decoded[o + TD_AR_DSLOT];
       keptChain[2 * p + 1] = decoded[o + TD_AR_DP];
       if (mode === 1) {
         const g = grad as Float64Array;
         const at = p * TRANSIT_PLANET_STRIDE;
-        for (let q = 0; q < 7; q++) g[at + q] = planetGrad[q];
+        for (let j = 0; j < 7; j++) g[at + j] = planetGrad[j];
         // Density form: a/R_* depends on slot 4 and on P.
         g[at] += planetGrad[4] * decoded[o + TD_AR_DP];
         g[at + 4] = planetGrad[4] * decoded[o + TD_AR_DSLOT];
@@ -311,6 +322,108 @@ export function createLightCurveKernel(options: LightCurveOptions): LightCurveKe
         g[uAt + 1] += planetGrad[8];
       }
     }
+  }
+
+  /**
+   * Planet p at the points of positions [from, to): sorted positions (point
+   * order[q]) when `windowed`, else point indices. Each point first passes the
+   * per-point phase test of its exposure against the window (the sweep's candidates
+   * are a superset), then each sub-sample is evaluated. Adds the deficits into `out`,
+   * and the partials into planetGrad (mode 1) or the kept Jacobian (mode 2).
+   */
+  function planetPoints(p: number, u1: number, u2: number, mode: 0 | 1 | 2, weights: Float64Array | null, out: Float64Array, from: number, to: number, windowed: boolean): void {
+    const o = p * TD_STRIDE;
+    const k = decoded[o + TD_K];
+    const reach = 1 + k;
+    const P = decoded[o + TD_PERIOD];
+    const tc = decoded[o + TD_TC];
+    const lo = decoded[o + TD_WINDOW_LO];
+    const width = decoded[o + TD_WINDOW_HI] - lo;
+    const withPartials = mode !== 0;
+    const rows = jacRows[p];
+    const index = jacIndex[p];
+    const order = sweep.order;
+    let count = jacCount[p];
+    for (let q = from; q < to; q++) {
+      const i = windowed ? order[q] : q;
+      const t = times[i];
+      const h = halfExposure[i];
+      if (windowed) {
+        let u = t - tc - lo + h;
+        u -= P * Math.floor(u / P);
+        if (u > width + 2 * h) continue;
+      }
+      const step = subStep[i];
+      let deficit = 0;
+      let touched = false;
+      let a0 = 0;
+      let a1 = 0;
+      let a2 = 0;
+      let a3 = 0;
+      let a4 = 0;
+      let a5 = 0;
+      let a6 = 0;
+      let a7 = 0;
+      let a8 = 0;
+      for (let j = 0; j < ns; j++) {
+        let tj = t;
+        if (ns > 1) {
+          tj = t - h + step * (j + 0.5);
+          if (windowed) {
+            let v = tj - tc - lo;
+            v -= P * Math.floor(v / P);
+            if (v > width) continue;
+          }
+        }
+        const inFront = separationInto(tj, decoded, o, sep, 0);
+        const zj = sep[0];
+        if (!inFront || zj >= reach) continue;
+        touched = true;
+        if (!withPartials) {
+          deficit += 1 - quadraticFluxUnchecked(zj, k, u1, u2);
+          continue;
+        }
+        separationPartialsInto(decoded, o, sep, 1);
+        deficit += 1 - quadraticFluxPartialsUnchecked(zj, k, u1, u2, fp, 0);
+        const dz = fp[1];
+        a0 += dz * sep[1];
+        a1 += dz * sep[2];
+        a2 += dz * sep[3];
+        a3 += dz * sep[4];
+        a4 += dz * sep[5];
+        a5 += dz * sep[6];
+        a6 += fp[2];
+        a7 += fp[3];
+        a8 += fp[4];
+      }
+      if (!touched) continue;
+      out[i] -= deficit * invNs;
+      if (mode === 1) {
+        const w = (weights as Float64Array)[i] * invNs;
+        planetGrad[0] += w * a0;
+        planetGrad[1] += w * a1;
+        planetGrad[2] += w * a2;
+        planetGrad[3] += w * a3;
+        planetGrad[4] += w * a4;
+        planetGrad[5] += w * a5;
+        planetGrad[6] += w * a6;
+        planetGrad[7] += w * a7;
+        planetGrad[8] += w * a8;
+      } else if (mode === 2) {
+        const r = count * ROW;
+        index[count++] = i;
+        rows[r] = a0 * invNs;
+        rows[r + 1] = a1 * invNs;
+        rows[r + 2] = a2 * invNs;
+        rows[r + 3] = a3 * invNs;
+        rows[r + 4] = a4 * invNs;
+        rows[r + 5] = a5 * invNs;
+        rows[r + 6] = a6 * invNs;
+        rows[r + 7] = a7 * invNs;
+        rows[r + 8] = a8 * invNs;
+      }
+    }
+    jacCount[p] = count;
   }
 
   function checkArray(field: string, a: Float64Array, length: number): void {
