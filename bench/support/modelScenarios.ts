@@ -9,11 +9,15 @@
  *   points in transit, about 3%, does not depend on N).
  * - `rvScenario`: two eccentric planets in radial velocities from two instruments over
  *   400 days.
+ * - `transitScenario`: two transiting planets on circular orbits in one light curve
+ *   (2-minute exposures, evenly spread over 40 days: about 5% of the points in a
+ *   transit, whatever N).
  */
 import { createRandomStream } from '@apsis/core';
 import {
   createJointModel,
   createRvModel,
+  createTransitModel,
   simulateLightCurve,
   simulateRadialVelocities,
   type PlanetSystemModel,
@@ -106,4 +110,40 @@ export function rvScenarioInput(args: RvScenarioArgs = {}): Parameters<typeof cr
 /** The two-planet RV model of the invented system (a worker recipe export). */
 export async function rvScenario(args: RvScenarioArgs = {}): Promise<PlanetSystemModel> {
   return createRvModel(rvScenarioInput(args));
+}
+
+export interface TransitScenarioArgs {
+  /** Light-curve points (default 20000). */
+  lightCurvePoints?: number;
+  searchMode?: boolean;
+  seed?: string;
+}
+
+const transitTruth = [
+  { period: 2.8517, tc: ORIGIN + 0.734, radiusRatio: 0.081, impactParameter: 0.28 },
+  { period: 7.3391, tc: ORIGIN + 3.012, radiusRatio: 0.058, impactParameter: 0.52 },
+];
+
+/** The invented two-planet transiting system: builder input with a simulated light curve. */
+export function transitScenarioInput(args: TransitScenarioArgs = {}): Parameters<typeof createTransitModel>[0] {
+  const n = args.lightCurvePoints ?? 20000;
+  const rng = createRandomStream(args.seed ?? 'apsis bench transit');
+  const times = Float64Array.from({ length: n }, (_, i) => ORIGIN + (40 * (i + 0.5)) / n);
+  const lc = simulateLightCurve(
+    { label: 'imager', times, errors: 3e-4, exposureTime: 2 / 1440, planets: transitTruth, starDensity: 1.62, u1: 0.38, u2: 0.26, jitter: 8e-5 },
+    rng,
+  ).data;
+  return {
+    lightCurves: [{ ...lc, subSamples: 1 }],
+    planets: [
+      { label: 'b', period: 2.8515, tc: ORIGIN + 0.735 },
+      { label: 'c', period: 7.339, tc: ORIGIN + 3.01 },
+    ],
+    ...(args.searchMode === false ? { searchMode: false } : {}),
+  };
+}
+
+/** The transit model of the invented two-planet system (a worker recipe export). */
+export async function transitScenario(args: TransitScenarioArgs = {}): Promise<PlanetSystemModel> {
+  return createTransitModel(transitScenarioInput(args));
 }

@@ -9,7 +9,7 @@
 import { pathToFileURL } from 'node:url';
 import { createRandomStream } from '@apsis/core';
 import type { PlanetSystemModel } from '@apsis/models';
-import { jointScenario, rvScenario } from './modelScenarios.js';
+import { jointScenario, rvScenario, transitScenario } from './modelScenarios.js';
 import { createReferenceLikelihood } from './referenceLikelihood.js';
 
 export interface ReferenceAgreement {
@@ -55,6 +55,7 @@ async function main(): Promise<void> {
   const cases: [string, PlanetSystemModel][] = [
     ['joint (N = 2000)', await jointScenario({ lightCurvePoints: 2000 })],
     ['2-planet RV (N = 200)', await rvScenario({ points: 200 })],
+    ['2-planet transit (N = 2000)', await transitScenario({ lightCurvePoints: 2000 })],
   ];
   for (const [name, model] of cases) {
     const r = compareWithModel(name, model);
