@@ -5,7 +5,7 @@
  *
  * 0. a conjunction time as T = tc + c P, the conjunction c periods after tc
  *    (`cycleShifted`): tc = T − c P, so ∂/∂T = ∂/∂tc and ∂/∂P gains −c ∂/∂tc;
- * 1. an impact parameter as β = b/(1 + k) on (0, 1): b = β (1 + k), so ∂/∂β =
+ * 1. an impact parameter as β = b/(1 + k) on (−1, 1): b = β (1 + k), so ∂/∂β =
  *    (1 + k) ∂/∂b and ∂/∂k gains β ∂/∂b;
  * 2. the stellar density and a/R_* as x₀ = x/s^p (`durationScale.ts`): x = x₀ s^p, with s
  *    from b, k and the eccentricity vector of the reference planet, so ∂/∂x₀ = s^p ∂/∂x

@@ -103,7 +103,7 @@ function declaredName(e: PlanEntry): string {
 function baseSupport(e: PlanEntry): Support {
   // An eccentricity prior ending below 1 sets the disk's radius (√e_max).
   if (e.size === 2) return supports.unitDisk(Math.sqrt(Math.min(1, e.prior.upper)));
-  if (e.impactOf) return supports.interval(0, 1);
+  if (e.impactOf) return supports.interval(-1, 1);
   const prior = e.prior as ScalarPrior;
   const lo = Math.max(e.lower, prior.lower);
   const hi = Math.min(e.upper, prior.upper);
