@@ -9,7 +9,7 @@
  */
 import { pathToFileURL } from 'node:url';
 import { createRandomStream, runChains } from '@apsis/core';
-import { summarizeDraws } from '@apsis/diagnostics';
+import { summarizeDraws, type QuantitySummary } from '@apsis/diagnostics';
 import {
   createJointModel,
   fitPanels,
@@ -64,19 +64,7 @@ export interface JointFitOptions {
   readonly quiet?: boolean;
 }
 
-/** Posterior summary of one trace column. */
-export interface ColumnSummary {
-  readonly name: string;
-  readonly unit: string;
-  readonly mean: number;
-  /** Central 99% interval. */
-  readonly low: number;
-  readonly high: number;
-  /** Rank-normalised split R-hat; null for a constant column. */
-  readonly rhat: number | null;
-}
-
-export async function main(options: JointFitOptions = {}): Promise<{ summary: ColumnSummary[]; panels: DataPanel[]; epoch: number; divergences: number }> {
+export async function main(options: JointFitOptions = {}): Promise<{ summary: QuantitySummary[]; panels: DataPanel[]; epoch: number; divergences: number }> {
   const { points = 60, transits = 4, chains = 4, warmup = 500, draws = 500, seed = 1, quiet = false } = options;
   const { rv, lightCurve } = simulate(points, transits, `joint example ${seed}`);
 
@@ -97,24 +85,17 @@ export async function main(options: JointFitOptions = {}): Promise<{ summary: Co
   }
 
   const result = await runChains(model, { chains, warmup, draws, seed });
-  // Mean, central 99% interval and R-hat of every trace column.
+  // Mean, central 99% interval (quantiles 0.5% and 99.5%) and R-hat of every trace column.
   const { names, values } = result.outputs!;
-  const table = summarizeDraws(values, { dim: names.length, names, quantiles: [0.005, 0.995] });
-  const summary: ColumnSummary[] = table.rows.map((row) => ({
-    name: row.name,
-    unit: model.units[row.name],
-    mean: row.mean,
-    low: row.quantiles[0].value,
-    high: row.quantiles[1].value,
-    rhat: row.rhat,
-  }));
+  const summary = summarizeDraws(values, { dim: names.length, names, quantiles: [0.005, 0.995] }).rows;
   const panels = fitPanels(model, result, { maxDraws: 30 });
   const divergences = result.divergences.reduce((a, b) => a + b, 0);
 
   if (!quiet) {
     console.log(`\n${divergences} divergent transitions; column, mean, 99% interval, R-hat:`);
-    for (const s of summary) {
-      console.log(`  ${s.name.padEnd(22)} ${s.mean.toPrecision(6).padStart(12)} [${s.low.toPrecision(6)}, ${s.high.toPrecision(6)}] ${s.unit.padEnd(8)} ${s.rhat === null ? 'constant' : s.rhat.toFixed(3)}`);
+    for (const { name, mean, quantiles: [low, high], rhat } of summary) {
+      const interval = `[${low.value.toPrecision(6)}, ${high.value.toPrecision(6)}]`;
+      console.log(`  ${name.padEnd(22)} ${mean.toPrecision(6).padStart(12)} ${interval} ${model.units[name].padEnd(8)} ${rhat === null ? 'constant' : rhat.toFixed(3)}`);
     }
     console.log(`\npanels: ${panels.map((p) => p.title).join('; ')}`);
   }

@@ -11,6 +11,7 @@
  */
 import { pathToFileURL } from 'node:url';
 import { compileModel, createRandomStream, drawsByName, priors, runChains, supports, tensorLikelihood } from '@apsis/core';
+import { summarize, type QuantitySummary } from '@apsis/diagnostics';
 
 /** The line and scatter the data are simulated from. */
 export const truth = { intercept: 2.5, slope: 0.8, scale: 0.5 } as const;
@@ -41,16 +42,7 @@ export interface RobustRegressionOptions {
   readonly quiet?: boolean;
 }
 
-/** Posterior summary of one output column. */
-export interface ColumnSummary {
-  readonly name: string;
-  readonly mean: number;
-  /** Central 99% interval: the 0.5% and 99.5% quantiles. */
-  readonly low: number;
-  readonly high: number;
-}
-
-export async function main(options: RobustRegressionOptions = {}): Promise<ColumnSummary[]> {
+export async function main(options: RobustRegressionOptions = {}): Promise<QuantitySummary[]> {
   const { points = 200, chains = 4, warmup = 500, draws = 1000, seed = 1, quiet = false } = options;
   const data = simulate(points, `robust regression data ${seed}`);
 
@@ -78,30 +70,17 @@ export async function main(options: RobustRegressionOptions = {}): Promise<Colum
   const result = await runChains(model, { chains, warmup, draws, seed });
   model.dispose();
 
-  // One array of chains per output column: intercept, slope, scale, lineAt10.
-  const summary = Object.entries(drawsByName(result)).map(([name, chains]) => summarise(name, chains));
+  // One array of chains per output column (intercept, slope, scale, lineAt10), summarised
+  // with the central 99% interval as quantiles 0.5% and 99.5%.
+  const summary = summarize(drawsByName(result), { quantiles: [0.005, 0.995] }).rows;
   if (!quiet) {
     const known: Record<string, number> = { ...truth, lineAt10: truth.intercept + 10 * truth.slope };
     console.log('quantity      truth     mean    99% interval');
-    for (const s of summary) {
-      console.log(
-        `${s.name.padEnd(12)} ${known[s.name].toFixed(3).padStart(6)}  ${s.mean.toFixed(3).padStart(7)}    [${s.low.toFixed(3)}, ${s.high.toFixed(3)}]`,
-      );
+    for (const { name, mean, quantiles: [low, high] } of summary) {
+      console.log(`${name.padEnd(12)} ${known[name].toFixed(3).padStart(6)}  ${mean.toFixed(3).padStart(7)}    [${low.value.toFixed(3)}, ${high.value.toFixed(3)}]`);
     }
   }
   return summary;
-}
-
-/** Mean and central 99% interval of the pooled chains (quantiles by linear interpolation). */
-function summarise(name: string, chains: Float64Array[]): ColumnSummary {
-  const all = Float64Array.from(chains.flatMap((c) => Array.from(c))).sort();
-  const quantile = (q: number): number => {
-    const h = (all.length - 1) * q;
-    const lo = Math.floor(h);
-    return all[lo] + (h - lo) * ((all[Math.min(lo + 1, all.length - 1)] ?? all[lo]) - all[lo]);
-  };
-  const mean = all.reduce((s, v) => s + v, 0) / all.length;
-  return { name, mean, low: quantile(0.005), high: quantile(0.995) };
 }
 
 if (import.meta.url === pathToFileURL(process.argv[1] ?? '').href) {

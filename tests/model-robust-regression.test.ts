@@ -20,9 +20,11 @@ describe('robust regression example', () => {
     const known: Record<string, number> = { ...truth, lineAt10: truth.intercept + 10 * truth.slope };
     expect(summary.map((s) => s.name)).toEqual(['intercept', 'slope', 'scale', 'lineAt10']);
     for (const s of summary) {
-      expect(s.low).toBeLessThan(known[s.name]);
-      expect(s.high).toBeGreaterThan(known[s.name]);
-      expect(s.high - s.low).toBeLessThan(Math.max(1, known[s.name])); // informative, not vacuous
+      expect(s.quantiles.map((q) => q.probability)).toEqual([0.005, 0.995]);
+      const [low, high] = s.quantiles.map((q) => q.value);
+      expect(low).toBeLessThan(known[s.name]);
+      expect(high).toBeGreaterThan(known[s.name]);
+      expect(high - low).toBeLessThan(Math.max(1, known[s.name])); // informative, not vacuous
     }
   });
 

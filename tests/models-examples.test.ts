@@ -1,6 +1,7 @@
 import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
+import type { QuantitySummary } from '@apsis/diagnostics';
 import { describe, expect, it } from 'vitest';
 import * as jointFit from '../examples/joint-fit.js';
 import * as rvFit from '../examples/rv-fit.js';
@@ -28,11 +29,13 @@ function expectVerbatim(doc: string, example: string): void {
   }
 }
 
-function inside(summary: readonly { name: string; low: number; high: number }[], name: string, value: number): void {
+/** `value` lies inside the central 99% interval (the summaries' two quantiles, 0.5% and 99.5%). */
+function inside(summary: readonly QuantitySummary[], name: string, value: number): void {
   const s = summary.find((x) => x.name === name);
   expect(s, name).toBeDefined();
-  expect(s!.low, name).toBeLessThan(value);
-  expect(s!.high, name).toBeGreaterThan(value);
+  expect(s!.quantiles.map((q) => q.probability)).toEqual([0.005, 0.995]);
+  expect(s!.quantiles[0].value, name).toBeLessThan(value);
+  expect(s!.quantiles[1].value, name).toBeGreaterThan(value);
 }
 
 describe('builder tutorials', () => {
