@@ -66,9 +66,10 @@ export async function run(options: SuiteOptions): Promise<SuiteResult> {
     // Best of three interleaved repeats: single runs of either kind moved by up to 18%
     // between repeats on this shared machine (measured 2026-12-01: joint serial 6.6–7.7 s),
     // which moved a single-repeat ratio between 1.57x and 2.11x.
-    // Runs of 4 to 8 s of sampling: each worker compiles the code afresh, and in shorter
-    // runs that warm-up showed as up to 30% more CPU time in the parallel run than in the
-    // serial one (whose thread is warm from earlier repeats) at 1.9 cores obtained.
+    // Runs of 5 to 11 s of sampling. In runs half as long the parallel run used up to 30%
+    // more CPU time than the serial one at 1.9 cores obtained; each worker compiles the
+    // code afresh (the serial thread is warm from earlier repeats), which a longer run
+    // amortises. A likely cause, not a measured one.
     ['joint RV + transit (N = 2000 + 50)', { module: scenarios, exportName: 'jointScenario', args: { lightCurvePoints: 2000 } }, q ? { warmup: 200, draws: 200 } : { warmup: 400, draws: 400 }, q ? 1 : 3],
     ['2-planet RV (N = 200)', { module: scenarios, exportName: 'rvScenario', args: { points: 200 } }, q ? { warmup: 300, draws: 300 } : { warmup: 1000, draws: 1000 }, q ? 1 : 3],
   ];
