@@ -125,6 +125,12 @@ export function centralDuration(period: number, scaledAxis: number): number {
   return (period / Math.PI) * Math.asin(Math.min(1, 1 / scaledAxis));
 }
 
+/** Time from the nearest predicted mid-transit, days (t and tc relative to the epoch). */
+function fromNearestTransit(t: number, period: number, tc: number): number {
+  const dt = t - tc;
+  return dt - period * Math.round(dt / period);
+}
+
 /**
  * Transit depth estimate (fraction of the flux) of a planet with period P and
  * conjunction tc (days relative to the epoch): one minus the weighted mean of the
@@ -144,9 +150,7 @@ export function estimateDepth(
     const sorted = Float64Array.from(lc.flux).sort();
     const median = sorted[Math.floor(sorted.length / 2)];
     for (let i = 0; i < lc.times.length; i++) {
-      let dt = lc.times[i] - epoch - tc;
-      dt -= period * Math.round(dt / period);
-      if (Math.abs(dt) > duration / 4) continue;
+      if (Math.abs(fromNearestTransit(lc.times[i] - epoch, period, tc)) > duration / 4) continue;
       const w = (median / lc.errors[i]) ** 2;
       sw += w;
       swf += (w * lc.flux[i]) / median;
@@ -191,9 +195,7 @@ export function transitTimingCentre(
       const w = 1 / (lc.errors[i] * lc.errors[i]);
       swAll += w;
       swtAll += w * t;
-      let dt = t - tc;
-      dt -= period * Math.round(dt / period);
-      if (Math.abs(dt) > duration) continue;
+      if (Math.abs(fromNearestTransit(t, period, tc)) > duration) continue;
       sw += w;
       swt += w * t;
     }
