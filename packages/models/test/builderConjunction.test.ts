@@ -12,13 +12,16 @@ import { lightCurve, rvData, transitWindows, twoPlanets } from './builderFixture
  */
 
 /** Radial velocities over 400 days and transits only in the first 30: the epoch lies ~45 periods from the transits. */
-async function farEpochModel(extra: { priors?: JointModelInput['priors'] } = {}): Promise<PlanetSystemModel> {
+async function farEpochModel(extra: { priors?: JointModelInput['priors'] } = {}, narrow = false): Promise<PlanetSystemModel> {
   const [b, c] = twoPlanets;
+  // `narrow`: a default prior on T about as narrow as the posterior, so that its terms
+  // in the gradient are as large as the likelihood's.
+  const uncertainties = narrow ? { tcUncertainty: 0.002, periodUncertainty: 1e-4 } : {};
   return createJointModel({
     rv: rvData(40, 'conj-rv'),
     lightCurves: [lightCurve('wide', [b], transitWindows(b, 30, 10 / 1440, 0.15), 'conj-lc')],
     planets: [
-      { label: 'b', period: b.period, tc: b.tc },
+      { label: 'b', period: b.period, tc: b.tc, ...uncertainties },
       { label: 'c', period: c.period, tc: c.tc, transiting: false },
     ],
     ...extra,
@@ -93,6 +96,24 @@ describe('conjunction time sampled near the middle of the transits', () => {
     const user = priors.normal(-0.2, 0.05);
     const expected = user.logDensity(base.tc_b + 0.003) - user.logDensity(base.tc_b);
     expect(rest(b) - rest(a)).toBeCloseTo(expected, 9);
+  });
+
+  it('with a prior given for tc, the gradient equals central differences (standard calculus; step 1e-4: truncation about 1e-8, rounding about 1e-7)', async () => {
+    const model = await farEpochModel({ priors: { tc_b: priors.normal(-0.2, 0.05) } }, true);
+    expect(model.names).toContain('conjunctionNearData_b.u');
+    const g = new Float64Array(model.dim);
+    const scratch = new Float64Array(model.dim);
+    for (const x of [new Float64Array(model.dim), Float64Array.from({ length: model.dim }, (_, i) => 0.3 * Math.sin(1.7 * i + 0.4))]) {
+      expect(Number.isFinite(model.logDensityGrad(x, g))).toBe(true);
+      for (let i = 0; i < model.dim; i++) {
+        const up = Float64Array.from(x);
+        const down = Float64Array.from(x);
+        up[i] += 1e-4;
+        down[i] -= 1e-4;
+        const numeric = (model.logDensityGrad(up, scratch) - model.logDensityGrad(down, scratch)) / 2e-4;
+        expect(Math.abs(g[i] - numeric), model.names[i]).toBeLessThan(1e-6 * (1 + Math.abs(numeric)));
+      }
+    }
   });
 
   it('a bounded prior given for tc samples tc itself', async () => {
