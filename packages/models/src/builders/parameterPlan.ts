@@ -226,7 +226,7 @@ export function planParameters(system: PreparedSystem): ParameterPlan {
       const m = Math.round((epoch + sampledRel - p.tc) / p.period);
       const s0 = p.tcUncertainty ?? (p.transiting ? T / 2 : p.period / 4);
       sigmaTc = Math.sqrt(s0 * s0 + (m * sigmaP) ** 2);
-      tcNote = `the given time moved by ${m} periods; sd = √(σ₀² + (n σ_P)²) with σ₀ = ${
+      tcNote = `the given time moved by n = ${m} periods; sd = √(σ₀² + (n σ_P)²) with σ₀ = ${
         p.tcUncertainty !== undefined ? 'the given uncertainty' : p.transiting ? 'half the expected duration' : 'P/4'
       }`;
     } else {
