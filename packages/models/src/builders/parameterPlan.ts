@@ -11,7 +11,7 @@ import { FitSettingsError } from './errors.js';
 import type { PhysicalLayout } from './physicalLayout.js';
 import { resolveScalarPrior } from './priorInput.js';
 import type { PreparedSystem } from './prepareInput.js';
-import { centralDuration, estimateDepth, fitSinusoids, scaledAxisFromDensity, transitTimingCentre, weightedMeanTime } from './startingEstimates.js';
+import { centralDuration, estimateDepth, fitSinusoids, inverseVarianceMean, scaledAxisFromDensity, transitTimingCentre } from './startingEstimates.js';
 
 /** Density of the Sun, g/cm³ (nominal mass and radius, IAU 2015 B3, with G of CODATA 2018). */
 export const SOLAR_DENSITY_CGS = 1.40978;
@@ -219,7 +219,7 @@ export function planParameters(system: PreparedSystem): ParameterPlan {
     } else {
       tcRel = sinusoids ? sinusoids.conjunctions[i] : 0;
     }
-    const centre = p.transiting ? transitTimingCentre(lightCurves, epoch, p.period, tcRel, T) : rv ? weightedMeanTime(rv.times, rv.errors) - epoch : NaN;
+    const centre = p.transiting ? transitTimingCentre(lightCurves, epoch, p.period, tcRel, T) : rv ? inverseVarianceMean(rv.times, rv.errors) - epoch : NaN;
     const cycles = Number.isFinite(centre) ? Math.round((centre - tcRel) / p.period) : 0;
     const sampledRel = tcRel + cycles * p.period;
     if (p.tc !== undefined) {
@@ -424,13 +424,7 @@ export function planParameters(system: PreparedSystem): ParameterPlan {
         vals.push(rv.values[k]);
         errs.push(rv.errors[k]);
       }
-      let sw = 0;
-      let swv = 0;
-      for (let k = 0; k < vals.length; k++) {
-        const w = 1 / (errs[k] * errs[k]);
-        sw += w;
-        swv += w * vals[k];
-      }
+      const mean = inverseVarianceMean(vals, errs);
       const scale = Math.max(sd(vals), rms(errs));
       layout.offset[j] = slot();
       add({
@@ -440,8 +434,8 @@ export function planParameters(system: PreparedSystem): ParameterPlan {
         unit: 'm/s',
         lower: -Infinity,
         upper: Infinity,
-        prior: priors.normal(swv / sw, 5 * scale),
-        note: `normal(${fmt(swv / sw)}, ${fmt(5 * scale)}): the instrument's weighted mean, sd 5 × max(scatter, rms error)`,
+        prior: priors.normal(mean, 5 * scale),
+        note: `normal(${fmt(mean)}, ${fmt(5 * scale)}): the instrument's weighted mean, sd 5 × max(scatter, rms error)`,
         guess: [sinusoids.offsets[j]],
       });
       layout.jitter[j] = slot();

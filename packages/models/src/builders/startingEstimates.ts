@@ -159,16 +159,16 @@ export function estimateDepth(
   return sw > 0 ? 1 - swf / sw : NaN;
 }
 
-/** Mean of times weighted by 1/σ², days in the data's time system. */
-export function weightedMeanTime(times: ArrayLike<number>, errors: ArrayLike<number>): number {
+/** Mean of values (times, velocities) weighted by 1/σ². */
+export function inverseVarianceMean(values: ArrayLike<number>, errors: ArrayLike<number>): number {
   let sw = 0;
-  let swt = 0;
-  for (let i = 0; i < times.length; i++) {
+  let swv = 0;
+  for (let i = 0; i < values.length; i++) {
     const w = 1 / (errors[i] * errors[i]);
     sw += w;
-    swt += w * times[i];
+    swv += w * values[i];
   }
-  return swt / sw;
+  return swv / sw;
 }
 
 /**
