@@ -3,7 +3,10 @@
  * Gradients are plain float64 loops: the dense one is the honest cost of a
  * dim-dimensional correlated Gaussian (one dim × dim matrix-vector product).
  */
-import { createRandomStream, type Target } from '@apsis/core';
+import type { Target } from '@apsis/core';
+// The sampler tests' random rotation (Gram–Schmidt twice on Gaussian columns), so that
+// both use one generator.
+import { randomOrthogonal } from '../../packages/core/test/support/targets.js';
 
 /** A zero-mean Gaussian target with its covariance (row-major, dim × dim) and marginal variances. */
 export interface GaussianBenchTarget {
@@ -13,28 +16,6 @@ export interface GaussianBenchTarget {
   readonly variances: Float64Array;
   /** Covariance matrix, row-major (null when only the variances are kept, for large dim). */
   readonly covariance: Float64Array | null;
-}
-
-/** A random orthogonal matrix: modified Gram–Schmidt (twice) on Gaussian columns from `seedText`. */
-export function randomRotation(n: number, seedText: string): Float64Array {
-  const rng = createRandomStream(seedText);
-  const q = new Float64Array(n * n); // column k at q[i * n + k]
-  const v = new Float64Array(n);
-  for (let k = 0; k < n; k++) {
-    for (let i = 0; i < n; i++) v[i] = rng.normal();
-    for (let pass = 0; pass < 2; pass++) {
-      for (let j = 0; j < k; j++) {
-        let dot = 0;
-        for (let i = 0; i < n; i++) dot += q[i * n + j] * v[i];
-        for (let i = 0; i < n; i++) v[i] -= dot * q[i * n + j];
-      }
-    }
-    let norm = 0;
-    for (let i = 0; i < n; i++) norm += v[i] * v[i];
-    norm = Math.sqrt(norm);
-    for (let i = 0; i < n; i++) q[i * n + k] = v[i] / norm;
-  }
-  return q;
 }
 
 function fromEigen(q: Float64Array, lambda: Float64Array, n: number): Float64Array {
@@ -75,7 +56,7 @@ export function densePrecisionTarget(precision: Float64Array, dim: number): Targ
  * dim² multiply-adds.
  */
 export function rotatedGaussian(dim: number, condition: number, seedText: string): GaussianBenchTarget {
-  const q = randomRotation(dim, seedText);
+  const q = randomOrthogonal(dim, seedText);
   const lambda = new Float64Array(dim);
   const inv = new Float64Array(dim);
   const lo = -0.5 * Math.log10(condition);
