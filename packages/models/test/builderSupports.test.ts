@@ -2,6 +2,7 @@ import { priors, supports } from '@apsis/core';
 import { describe, expect, it } from 'vitest';
 import { centredSupport } from '../src/builders/supports/centred.js';
 import { eccentricityDiskPrior } from '../src/builders/eccentricityPrior.js';
+import { IMPACT_STRETCH, impactFractionSupport } from '../src/builders/supports/impactFraction.js';
 
 /**
  * The builders' centred, scaled support wrapper and the eccentricity prior on the unit
@@ -46,6 +47,60 @@ describe('centred support', () => {
 
   it('rejects scales that are not finite and positive', () => {
     expect(() => centredSupport(supports.real(), [0], [0])).toThrow(/scale\[0\] = 0/);
+  });
+});
+
+describe('impact fraction support (stretched logistic coordinate)', () => {
+  const t = impactFractionSupport().bind(1);
+  const at = (w: number): { beta: number; logJ: number } => {
+    const theta = new Float64Array(1);
+    const logJ = t.forward(Float64Array.of(w), 0, theta, 0);
+    return { beta: theta[0], logJ };
+  };
+
+  it('is w = v √(1 + v²/ρ²) of the logistic coordinate v = ln((1 + β)/(1 − β))', () => {
+    // The definition in supports/impactFraction.ts, inverted by hand at chosen β.
+    for (const beta of [-0.97, -0.5, -1e-9, 0, 0.2, 0.46, 0.9, 1 - 1e-9]) {
+      const v = Math.log((1 + beta) / (1 - beta));
+      const w = v * Math.sqrt(1 + (v / IMPACT_STRETCH) ** 2);
+      const back = new Float64Array(1);
+      expect(t.inverse([beta], 0, back, 0)).toBe(true);
+      expect(back[0]).toBeCloseTo(w, 9);
+      expect(at(w).beta).toBeCloseTo(beta, 12);
+    }
+    expect(t.inverse([1], 0, new Float64Array(1), 0)).toBe(false);
+    expect(t.inverse([-1], 0, new Float64Array(1), 0)).toBe(false);
+  });
+
+  it('carries the density: log|dβ/dw| against central differences, and a uniform β integrates to 2', () => {
+    for (const w of [-40, -3.1, -0.4, -1e-7, 0, 0.25, 1.7, 12, 300]) {
+      const h = 1e-6 * Math.max(1, Math.abs(w));
+      const slope = (at(w + h).beta - at(w - h).beta) / (2 * h);
+      if (slope > 1e-300) expect(at(w).logJ).toBeCloseTo(Math.log(slope), 6);
+    }
+    // ∫ |dβ/dw| dw over the real line is the length of (−1, 1) (change of variables).
+    let mass = 0;
+    // Beyond |w| = 3000 (v ≈ 39) less than 1e-16 of the mass remains.
+    const n = 2000000;
+    const span = 3000;
+    for (let i = 0; i < n; i++) mass += Math.exp(at(-span + ((i + 0.5) * 2 * span) / n).logJ) * ((2 * span) / n);
+    expect(mass).toBeCloseTo(2, 6);
+  });
+
+  it('chains gradients: backward against central differences of β·g + log|dβ/dw|', () => {
+    for (const w of [-5, -0.8, -1e-6, 0, 0.3, 2.2, 9]) {
+      const g = -7.5;
+      const f = (x: number): number => {
+        const r = at(x);
+        return g * r.beta + r.logJ;
+      };
+      const theta = new Float64Array(1);
+      t.forward(Float64Array.of(w), 0, theta, 0);
+      const gU = new Float64Array(1);
+      t.backward(Float64Array.of(w), 0, theta, 0, Float64Array.of(g), 0, gU, 0);
+      const h = 1e-6;
+      expect(gU[0]).toBeCloseTo((f(w + h) - f(w - h)) / (2 * h), 6);
+    }
   });
 });
 

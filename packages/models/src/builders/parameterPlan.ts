@@ -47,7 +47,8 @@ export interface PlanEntry {
    * β on (0, 1) was tried and, on the demo's model with its dense metric, gave 0.65
    * times the ESS per gradient (4 chains × 1000 draws, two seeds: 1.1e-2 against
    * 1.7e-2), the smallest ESS being that of b, whose posterior reaches b = 0 and there
-   * became a long tail of the logit. `radiusSlot` is the slot of k.
+   * became a long tail of the logit. The sampler's coordinate for β is a stretched
+   * logistic one (`supports/impactFraction.ts`). `radiusSlot` is the slot of k.
    */
   readonly impactOf?: { readonly radiusSlot: number };
   /**

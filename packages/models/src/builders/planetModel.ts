@@ -34,6 +34,7 @@ import { FitDataError, FitSettingsError } from './errors.js';
 import { planParameters, type ParameterPlan, type PlanEntry } from './parameterPlan.js';
 import type { PreparedSystem } from './prepareInput.js';
 import { centredSupport } from './supports/centred.js';
+import { impactFractionSupport } from './supports/impactFraction.js';
 import { createPhysicalMapping } from './physicalMapping.js';
 import { createSystemLikelihood, type SystemLikelihood } from './systemLikelihood.js';
 
@@ -103,7 +104,7 @@ function declaredName(e: PlanEntry): string {
 function baseSupport(e: PlanEntry): Support {
   // An eccentricity prior ending below 1 sets the disk's radius (√e_max).
   if (e.size === 2) return supports.unitDisk(Math.sqrt(Math.min(1, e.prior.upper)));
-  if (e.impactOf) return supports.interval(-1, 1);
+  if (e.impactOf) return impactFractionSupport();
   const prior = e.prior as ScalarPrior;
   const lo = Math.max(e.lower, prior.lower);
   const hi = Math.min(e.upper, prior.upper);
