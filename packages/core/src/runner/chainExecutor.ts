@@ -12,6 +12,8 @@ export interface ChainExecutor {
   readonly outputNames: readonly string[];
   /** Worker threads in use (0: the calling thread). */
   readonly threads: number;
+  /** Chains handed from one worker thread to another so far, to even the load. */
+  readonly moves: number;
   /** Advances every chain to `request.goal`; resolves with standings sorted by chain. */
   advance(request: AdvanceRequest): Promise<ChainStanding[]>;
   /** Asks all chains to stop after their current iteration. */

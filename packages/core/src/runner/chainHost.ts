@@ -70,6 +70,15 @@ export interface ChainHost {
   advance(request: AdvanceRequest): Promise<ChainStanding[]>;
   /** Asks a running `advance` to stop after the current iteration. */
   stop(): void;
+  /**
+   * Hands one chain over to another host, between slices: of the chains short of the
+   * current goal, the one with the most iterations left, provided at least two are
+   * short of it (so this host keeps working). Returns its state and stops hosting it,
+   * or returns null.
+   */
+  release(): { readonly chain: number; readonly state: SerialisedChainState } | null;
+  /** Takes over a chain that another host released; the next `advance` runs it. */
+  adopt(start: ChainStart): void;
 }
 
 function adaptationOf(state: ChainState): ChainAdaptation {
@@ -116,6 +125,7 @@ export function createChainHost(
   const states = starts.map((s, i) => startChain(target, settings, s, workspaces[i]));
   const total = settings.warmup + settings.draws;
   let stopping = false;
+  let goal = 0;
 
   const standing = (): ChainStanding[] =>
     states.map((s) => ({ chain: s.chain, iteration: s.iteration, adaptation: adaptationOf(s), divergences: { ...s.divergences } }));
@@ -162,7 +172,7 @@ export function createChainHost(
     outputNames: outputs ? [...outputs.names] : [],
     async advance(request: AdvanceRequest): Promise<ChainStanding[]> {
       stopping = false;
-      const goal = Math.min(request.goal, total);
+      goal = Math.min(request.goal, total);
       for (;;) {
         let busy = false;
         for (let i = 0; i < states.length && !stopping; i++) {
@@ -177,6 +187,24 @@ export function createChainHost(
     },
     stop(): void {
       stopping = true;
+    },
+    release() {
+      let pick = -1;
+      let short = 0;
+      for (let i = 0; i < states.length; i++) {
+        if (states[i].iteration >= goal) continue;
+        short += 1;
+        if (pick < 0 || states[i].iteration < states[pick].iteration) pick = i;
+      }
+      if (short < 2 || stopping) return null;
+      const [state] = states.splice(pick, 1);
+      workspaces.splice(pick, 1);
+      return { chain: state.chain, state: serialiseChainState(state) };
+    },
+    adopt(start: ChainStart): void {
+      const ws = createChainWorkspace(dim, settings);
+      states.push(startChain(target, settings, start, ws));
+      workspaces.push(ws);
     },
   };
 }

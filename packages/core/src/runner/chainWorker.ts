@@ -39,6 +39,17 @@ async function main(): Promise<void> {
           (e: unknown) => fail(e),
         ),
       );
+    } else if (message.type === 'release') {
+      // Answered at once: between two slices of a running advance, or while idle.
+      send({ type: 'released', released: host.release() });
+    } else if (message.type === 'adopt') {
+      running = running.then(() => {
+        try {
+          host.adopt(message.start);
+        } catch (e) {
+          fail(e);
+        }
+      });
     } else if (message.type === 'stop') {
       host.stop();
     } else if (message.type === 'close') {

@@ -17,6 +17,7 @@ export function createInThreadExecutor(
     names: target.names ? [...target.names] : null,
     outputNames: host.outputNames,
     threads: 0,
+    moves: 0,
     async advance(request) {
       const standing = await host.advance(request);
       return standing.sort((a, b) => a.chain - b.chain);

@@ -1,7 +1,7 @@
 import type { Worker } from 'node:worker_threads';
 import type { ChainSettings } from '../sampler/chainSettings.js';
 import { ChainStateError, InitialisationError } from '../sampler/errors.js';
-import type { ChainStanding, ChainStart, SliceLimits } from './chainHost.js';
+import type { AdvanceRequest, ChainStanding, ChainStart, SliceLimits } from './chainHost.js';
 import { defaultSliceLimits } from './chainHost.js';
 import type { ChainExecutor, EventSink } from './chainExecutor.js';
 import { TargetMismatchError, TargetRecipeError, WorkerFailureError } from './errors.js';
@@ -20,6 +20,7 @@ interface WorkerSlot {
   readonly chains: number[];
   ready: Deferred<FromWorker & { type: 'ready' }> | null;
   advancing: Deferred<ChainStanding[]> | null;
+  releasing: Deferred<(FromWorker & { type: 'released' })['released']> | null;
   failure: Error | null;
   closing: boolean;
 }
@@ -64,13 +65,15 @@ export async function startWorkerExecutor(
   const slots: WorkerSlot[] = groups.map((chains, index) => {
     const setup: WorkerSetup = { recipe, settings, starts: chains.map((c) => byChain.get(c)!), slice };
     const worker = launchChainWorker(setup, isTypeScriptModule(recipe.module));
-    const slot: WorkerSlot = { index, worker, chains, ready: null, advancing: null, failure: null, closing: false };
+    const slot: WorkerSlot = { index, worker, chains, ready: null, advancing: null, releasing: null, failure: null, closing: false };
     const failWith = (error: Error): void => {
       if (slot.failure === null) slot.failure = error;
       slot.ready?.reject(slot.failure);
       slot.advancing?.reject(slot.failure);
+      slot.releasing?.reject(slot.failure);
       slot.ready = null;
       slot.advancing = null;
+      slot.releasing = null;
     };
     worker.on('message', (message: FromWorker) => {
       switch (message.type) {
@@ -84,6 +87,10 @@ export async function startWorkerExecutor(
         case 'reached':
           slot.advancing?.resolve(message.standing);
           slot.advancing = null;
+          break;
+        case 'released':
+          slot.releasing?.resolve(message.released);
+          slot.releasing = null;
           break;
         case 'failed':
           failWith(rebuildError(message.name, message.message, slot));
@@ -130,25 +137,78 @@ export async function startWorkerExecutor(
     }
   }
 
+  /** Posts `advance` to one worker; resolves with its standings when it reaches the goal. */
+  const advanceOne = (slot: WorkerSlot, request: AdvanceRequest): Promise<ChainStanding[]> =>
+    new Promise<ChainStanding[]>((resolve, reject) => {
+      if (slot.failure) return reject(slot.failure);
+      slot.advancing = { resolve, reject };
+      post(slot, { type: 'advance', request });
+    });
+  /** Asks a worker to hand over one chain; null when it keeps them all. */
+  const releaseFrom = (slot: WorkerSlot): Promise<(FromWorker & { type: 'released' })['released']> =>
+    new Promise((resolve, reject) => {
+      if (slot.failure) return reject(slot.failure);
+      slot.releasing = { resolve, reject };
+      post(slot, { type: 'release' });
+    });
+  let stopping = false;
+  let moves = 0;
+
+  /**
+   * Runs one worker to the goal; each time it gets there while another worker still
+   * has two or more chains short of it, it takes one of them over and runs on. Chains
+   * do not depend on their host, so the draws are unchanged; the run ends when the
+   * total work, not the busier worker's share, is done.
+   */
+  const advanceBalanced = async (slot: WorkerSlot, request: AdvanceRequest, standings: Map<number, ChainStanding>, running: Set<WorkerSlot>): Promise<void> => {
+    for (;;) {
+      for (const s of await advanceOne(slot, request)) standings.set(s.chain, s);
+      running.delete(slot);
+      let moved = false;
+      // The busiest first: the worker hosting the most chains.
+      for (const other of [...running].sort((a, b) => b.chains.length - a.chains.length)) {
+        if (stopping) break;
+        if (other.releasing !== null) continue; // another worker is asking it already
+        const released = await releaseFrom(other);
+        if (released === null) continue;
+        other.chains.splice(other.chains.indexOf(released.chain), 1);
+        slot.chains.push(released.chain);
+        post(slot, { type: 'adopt', start: { chain: released.chain, restore: released.state } });
+        moves += 1;
+        moved = true;
+        break;
+      }
+      if (!moved) return;
+      running.add(slot);
+      // A stop that came while the chain was moving still applies to it: the worker
+      // clears its stop flag when an advance starts, so the stop follows the advance.
+      if (stopping) {
+        const standing = advanceOne(slot, request);
+        post(slot, { type: 'stop' });
+        for (const s of await standing) standings.set(s.chain, s);
+        running.delete(slot);
+        return;
+      }
+    }
+  };
+
   return {
     dim: first.dim,
     names: first.names,
     outputNames: first.outputNames,
     threads: slots.length,
+    get moves() {
+      return moves;
+    },
     async advance(request) {
-      const parts = await Promise.all(
-        slots.map(
-          (slot) =>
-            new Promise<ChainStanding[]>((resolve, reject) => {
-              if (slot.failure) return reject(slot.failure);
-              slot.advancing = { resolve, reject };
-              post(slot, { type: 'advance', request });
-            }),
-        ),
-      );
-      return parts.flat().sort((a, b) => a.chain - b.chain);
+      stopping = false;
+      const standings = new Map<number, ChainStanding>();
+      const running = new Set(slots);
+      await Promise.all(slots.map((slot) => advanceBalanced(slot, request, standings, running)));
+      return [...standings.values()].sort((a, b) => a.chain - b.chain);
     },
     stop() {
+      stopping = true;
       for (const slot of slots) if (slot.failure === null) post(slot, { type: 'stop' });
     },
     close: closeAll,
