@@ -87,6 +87,22 @@ describe('impact fraction support (stretched logistic coordinate)', () => {
     expect(mass).toBeCloseTo(2, 6);
   });
 
+  it('stays finite and monotone for the largest coordinates a diverging trajectory can reach', () => {
+    let previous = -1;
+    for (const w of [-1e308, -1e200, -1e20, -50, 50, 1e20, 1e200, 1e308]) {
+      const r = at(w);
+      expect(Number.isNaN(r.beta) || Number.isNaN(r.logJ)).toBe(false);
+      expect(r.beta).toBeGreaterThanOrEqual(previous);
+      previous = r.beta;
+      const gU = new Float64Array(1);
+      t.backward(Float64Array.of(w), 0, Float64Array.of(r.beta), 0, Float64Array.of(3), 0, gU, 0);
+      expect(Number.isNaN(gU[0])).toBe(false);
+    }
+    // Far out, v = sign(w) √(ρ|w|): β = tanh(v/2) is ±1 and log|dβ/dw| ≈ −v (from the
+    // definition: dβ/dv ≈ 2e^(−v), dw/dv ≈ 2v/ρ; v is √(ρw) to 1e-4 here).
+    expect(at(1e6).logJ).toBeCloseTo(Math.log(2) - Math.sqrt(IMPACT_STRETCH * 1e6) - Math.log((2 * Math.sqrt(IMPACT_STRETCH * 1e6)) / IMPACT_STRETCH), 3);
+  });
+
   it('chains gradients: backward against central differences of β·g + log|dβ/dw|', () => {
     for (const w of [-5, -0.8, -1e-6, 0, 0.3, 2.2, 9]) {
       const g = -7.5;

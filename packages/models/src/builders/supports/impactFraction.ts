@@ -35,14 +35,20 @@ function logLogistic(x: number): number {
   return x >= 0 ? -Math.log1p(Math.exp(-x)) : x - Math.log1p(Math.exp(x));
 }
 
-/** v from w: the positive root of w² = v² + v⁴/ρ², written to keep precision near 0. */
+/**
+ * v from w: the root of w² = v² + v⁴/ρ² with the sign of w, written to keep precision
+ * near 0 and not to overflow for |w| beyond 1e150 (where v = sign(w) √(ρ|w|) to float64).
+ */
 function logisticOf(w: number): number {
+  const a = Math.abs(w);
+  if (a > 1e150) return Math.sign(w) * Math.sqrt(IMPACT_STRETCH * a);
   return w * Math.sqrt(2 / (1 + Math.sqrt(1 + (4 * w * w) / R2)));
 }
 
-/** dw/dv at v. */
+/** dw/dv at v (2|v|/ρ to float64 beyond v²/ρ² = 1e100, where the exact form overflows). */
 function stretchSlope(v: number): number {
   const t = (v * v) / R2;
+  if (t > 1e100) return (2 * Math.abs(v)) / IMPACT_STRETCH;
   return (1 + 2 * t) / Math.sqrt(1 + t);
 }
 
