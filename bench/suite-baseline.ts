@@ -41,6 +41,7 @@ import { runAdaptiveMetropolis } from './baseline/adaptiveMetropolis.js';
 import { cpuSeconds } from './support/cpuTime.js';
 import { runIfMain, type Figure, type SuiteOptions, type SuiteResult } from './support/figures.js';
 import { rotatedGaussian } from './support/gaussianTargets.js';
+import { median } from './support/median.js';
 import { minBulkEss } from './support/minEss.js';
 import { buildDemoModel } from '../examples/demo/demoModel.js';
 import { jointScenario, rvScenario } from './support/modelScenarios.js';
@@ -117,12 +118,6 @@ export async function compare(label: string, target: Target, options: RunOptions
     },
   };
 }
-
-const median = (xs: readonly number[]): number => {
-  const s = [...xs].sort((a, b) => a - b);
-  const n = s.length;
-  return n % 2 ? s[(n - 1) / 2] : 0.5 * (s[n / 2 - 1] + s[n / 2]);
-};
 
 /**
  * Runs `replicas` comparisons with their own starting points and seeds: the baseline's

@@ -26,6 +26,7 @@ import { advanceChain, createChainState, resolveChainSettings, type Target } fro
 import { wallSeconds } from './support/cpuTime.js';
 import { runIfMain, type Figure, type SuiteOptions, type SuiteResult } from './support/figures.js';
 import { autoregressiveGaussian, rotatedGaussian } from './support/gaussianTargets.js';
+import { median } from './support/median.js';
 
 export interface OverheadFigures {
   /** Median seconds per bare gradient call. */
@@ -103,10 +104,6 @@ function quantile(values: readonly number[], p: number): number {
   const h = (s.length - 1) * p;
   const lo = Math.floor(h);
   return s[lo] + (h - lo) * ((s[Math.min(lo + 1, s.length - 1)] ?? s[lo]) - s[lo]);
-}
-
-function median(values: readonly number[]): number {
-  return quantile(values, 0.5);
 }
 
 /** Runs the overhead suite. */

@@ -19,6 +19,7 @@ import { loadavg } from 'node:os';
 import { fileURLToPath } from 'node:url';
 import { executeRun, type LongRunResult, type TargetRecipe } from '@apsis/core';
 import { runIfMain, type Figure, type SuiteOptions, type SuiteResult } from './support/figures.js';
+import { median } from './support/median.js';
 
 const scenarios = fileURLToPath(new URL('./support/modelScenarios.ts', import.meta.url));
 
@@ -38,12 +39,6 @@ interface SpeedUp {
   readonly cores: number;
   readonly identical: boolean;
 }
-
-const median = (xs: readonly number[]): number => {
-  const v = [...xs].sort((a, b) => a - b);
-  const n = v.length;
-  return n % 2 ? v[(n - 1) / 2] : 0.5 * (v[n / 2 - 1] + v[n / 2]);
-};
 
 /**
  * Repeats of three runs of the same 4 chains: in one worker thread, on two worker

@@ -1,3 +1,5 @@
+import { median } from './median.js';
+
 /**
  * Process CPU time (user + system), in seconds. On a shared machine other processes
  * inflate wall time but not this process's CPU time; for single-threaded work the two
@@ -128,11 +130,6 @@ export function pairedBlocks(
       times[i][b] = (wallSeconds() - t0) / reps;
     }
   }
-  const median = (a: Float64Array): number => {
-    const s = Float64Array.from(a).sort();
-    const n = s.length;
-    return n % 2 ? s[(n - 1) / 2] : 0.5 * (s[n / 2 - 1] + s[n / 2]);
-  };
   return {
     median: times.map(median),
     ratioToFirst: times.map((t) => median(t.map((x, b) => x / times[0][b]))),
