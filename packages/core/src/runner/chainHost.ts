@@ -25,6 +25,12 @@ export type HostEvent =
       readonly stepSize: number;
     };
 
+/** A chain one host hands over to another: its index and whole state. */
+export interface ReleasedChain {
+  readonly chain: number;
+  readonly state: SerialisedChainState;
+}
+
 /** Where each hosted chain stands after {@link ChainHost.advance}. */
 export interface ChainStanding {
   readonly chain: number;
@@ -76,7 +82,7 @@ export interface ChainHost {
    * short of it (so this host keeps working). Returns its state and stops hosting it,
    * or returns null.
    */
-  release(): { readonly chain: number; readonly state: SerialisedChainState } | null;
+  release(): ReleasedChain | null;
   /** Takes over a chain that another host released; the next `advance` runs it. */
   adopt(start: ChainStart): void;
 }

@@ -1,7 +1,7 @@
 import type { Worker } from 'node:worker_threads';
 import type { ChainSettings } from '../sampler/chainSettings.js';
 import { ChainStateError, InitialisationError } from '../sampler/errors.js';
-import type { AdvanceRequest, ChainStanding, ChainStart, SliceLimits } from './chainHost.js';
+import type { AdvanceRequest, ChainStanding, ChainStart, ReleasedChain, SliceLimits } from './chainHost.js';
 import { defaultSliceLimits } from './chainHost.js';
 import type { ChainExecutor, EventSink } from './chainExecutor.js';
 import { TargetMismatchError, TargetRecipeError, WorkerFailureError } from './errors.js';
@@ -20,7 +20,7 @@ interface WorkerSlot {
   readonly chains: number[];
   ready: Deferred<FromWorker & { type: 'ready' }> | null;
   advancing: Deferred<ChainStanding[]> | null;
-  releasing: Deferred<(FromWorker & { type: 'released' })['released']> | null;
+  releasing: Deferred<ReleasedChain | null> | null;
   failure: Error | null;
   closing: boolean;
 }
@@ -145,7 +145,7 @@ export async function startWorkerExecutor(
       post(slot, { type: 'advance', request });
     });
   /** Asks a worker to hand over one chain; null when it keeps them all. */
-  const releaseFrom = (slot: WorkerSlot): Promise<(FromWorker & { type: 'released' })['released']> =>
+  const releaseFrom = (slot: WorkerSlot): Promise<ReleasedChain | null> =>
     new Promise((resolve, reject) => {
       if (slot.failure) return reject(slot.failure);
       slot.releasing = { resolve, reject };
@@ -162,12 +162,16 @@ export async function startWorkerExecutor(
    */
   const advanceBalanced = async (slot: WorkerSlot, request: AdvanceRequest, standings: Map<number, ChainStanding>, running: Set<WorkerSlot>): Promise<void> => {
     for (;;) {
-      for (const s of await advanceOne(slot, request)) standings.set(s.chain, s);
+      const reached = advanceOne(slot, request);
+      // A stop that came while a chain was moving here still applies to it: the worker
+      // clears its stop flag when an advance starts, so the stop follows the advance.
+      if (stopping) post(slot, { type: 'stop' });
+      for (const s of await reached) standings.set(s.chain, s);
       running.delete(slot);
+      if (stopping) return;
       let moved = false;
       // The busiest first: the worker hosting the most chains.
       for (const other of [...running].sort((a, b) => b.chains.length - a.chains.length)) {
-        if (stopping) break;
         if (other.releasing !== null) continue; // another worker is asking it already
         const released = await releaseFrom(other);
         if (released === null) continue;
@@ -180,15 +184,6 @@ export async function startWorkerExecutor(
       }
       if (!moved) return;
       running.add(slot);
-      // A stop that came while the chain was moving still applies to it: the worker
-      // clears its stop flag when an advance starts, so the stop follows the advance.
-      if (stopping) {
-        const standing = advanceOne(slot, request);
-        post(slot, { type: 'stop' });
-        for (const s of await standing) standings.set(s.chain, s);
-        running.delete(slot);
-        return;
-      }
     }
   };
 

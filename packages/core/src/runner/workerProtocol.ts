@@ -1,6 +1,5 @@
 import type { ChainSettings } from '../sampler/chainSettings.js';
-import type { ChainStart, ChainStanding, AdvanceRequest, HostEvent, SliceLimits } from './chainHost.js';
-import type { SerialisedChainState } from '../sampler/chainCheckpoint.js';
+import type { ChainStart, ChainStanding, AdvanceRequest, HostEvent, ReleasedChain, SliceLimits } from './chainHost.js';
 import type { ResolvedTargetRecipe } from './targetRecipe.js';
 
 /** The data a chain worker starts with (its `workerData`). */
@@ -26,5 +25,5 @@ export type FromWorker =
   | { readonly type: 'ready'; readonly dim: number; readonly names: readonly string[] | null; readonly outputNames: readonly string[] }
   | { readonly type: 'event'; readonly event: HostEvent }
   | { readonly type: 'reached'; readonly standing: ChainStanding[] }
-  | { readonly type: 'released'; readonly released: { readonly chain: number; readonly state: SerialisedChainState } | null }
+  | { readonly type: 'released'; readonly released: ReleasedChain | null }
   | { readonly type: 'failed'; readonly name: string; readonly message: string; readonly stack?: string };
