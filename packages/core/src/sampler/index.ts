@@ -29,6 +29,7 @@ export {
   addToWelford,
   resetWelford,
   regularisedCovariance,
+  correlationShrinkage,
   denseMinimumDrawsPerDim,
   type WelfordState,
 } from './welford.js';
