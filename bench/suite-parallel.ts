@@ -10,6 +10,9 @@
  * formed within each repeat, median over repeats; end-to-end times and the cores the run
  * obtained (CPU seconds of this process and its threads per wall second) are shown beside
  * it, and the draws must be identical. Wall-clock time, since threads pay off only there.
+ * Beside each model's figure the suite measures, in the same rotation of repeats, what
+ * two workers gain over one for a loop of plain arithmetic that shares nothing
+ * (bench/support/arithmeticCeiling.ts): the machine's own ceiling for the figure.
  * The runner's own benchmark (bench/runner-parallel.ts) covers TensorFlow.js targets and
  * the cost of streaming traces to disk.
  *
@@ -19,6 +22,7 @@ import { loadavg } from 'node:os';
 import { fileURLToPath } from 'node:url';
 import { executeRun, type LongRunResult, type TargetRecipe } from '@apsis/core';
 import { runIfMain, type Figure, type SuiteOptions, type SuiteResult } from './support/figures.js';
+import { calibrateIterations, ceilingRatio } from './support/arithmeticCeiling.js';
 import { median } from './support/median.js';
 
 const scenarios = fileURLToPath(new URL('./support/modelScenarios.ts', import.meta.url));
@@ -38,6 +42,8 @@ interface SpeedUp {
   readonly two: LongRunResult[];
   readonly cores: number;
   readonly identical: boolean;
+  /** The arithmetic loop's 2-worker ratio in each repeat (the machine's ceiling). */
+  readonly ceilings: number[];
 }
 
 /**
@@ -46,14 +52,16 @@ interface SpeedUp {
  * a slow spell of the machine does not always fall on the same kind. Each ratio is
  * formed within one repeat; the figure is their median.
  */
-async function speedUp(recipe: TargetRecipe, iterations: { warmup: number; draws: number }, repeats: number): Promise<SpeedUp> {
+async function speedUp(recipe: TargetRecipe, iterations: { warmup: number; draws: number }, repeats: number, loop: number): Promise<SpeedUp> {
   const base = { ...iterations, chains: 4, seed: 21, progress: false };
   const wall = (r: LongRunResult): number => r.timing.startup + r.timing.sampling;
   const one: LongRunResult[] = [];
   const two: LongRunResult[] = [];
   const here: LongRunResult[] = [];
+  const ceilings: number[] = [];
   let cores = 0;
   const kinds = [
+    async () => ceilings.push(await ceilingRatio(loop)),
     async () => one.push(await executeRun(recipe, { ...base, threads: 1 })),
     async () => {
       const c0 = process.cpuUsage();
@@ -76,6 +84,7 @@ async function speedUp(recipe: TargetRecipe, iterations: { warmup: number; draws
     two,
     cores,
     identical: all.every((r) => same(all[0], r)),
+    ceilings,
   };
 }
 
@@ -94,8 +103,12 @@ export async function run(options: SuiteOptions): Promise<SuiteResult> {
     ['2-planet RV (N = 200)', { module: scenarios, exportName: 'rvScenario', args: { points: 200 } }, q ? { warmup: 300, draws: 300 } : { warmup: 1000, draws: 1000 }, q ? 1 : 5],
   ];
   const figures: Figure[] = [];
+  // About 1.5 s per unit: long against a worker's start, short against the model runs.
+  const loop = await calibrateIterations(1.5);
+  const ceilings: number[] = [];
   for (const [label, recipe, iterations, repeats] of q ? cases.slice(1) : cases) {
-    const s = await speedUp(recipe, iterations, repeats);
+    const s = await speedUp(recipe, iterations, repeats, loop);
+    ceilings.push(...s.ceilings);
     const clocks = (rs: readonly LongRunResult[]): string => rs.map((r) => r.timing.sampling.toFixed(2)).join(', ');
     figures.push({
       group: 'parallel chains: 2 worker threads vs 1 (4 chains)',
@@ -105,11 +118,19 @@ export async function run(options: SuiteOptions): Promise<SuiteResult> {
       target: { op: '>=', limit: 1.8 },
       note:
         `per repeat ${s.ratios.map((r) => r.toFixed(2)).join(', ')}x; sampling clocks ${clocks(s.one)} s on 1 worker, ${clocks(s.two)} s on 2; ` +
+        `machine ceiling in the same repeats ${s.ceilings.map((r) => r.toFixed(2)).join(', ')}x (median ${median(s.ceilings).toFixed(2)}x; this figure is ${(s.sampling / median(s.ceilings)).toFixed(2)} of it); ` +
         `calling thread / 2 workers ${s.inThread.toFixed(2)}x; end to end ${s.endToEnd.toFixed(2)}x (start-up ${s.two[0].timing.startup.toFixed(2)} s on 2 workers); ` +
         `cores obtained ${s.cores.toFixed(2)}; draws identical: ${s.identical ? 'yes' : 'NO'}; load average ${load.toFixed(2)} before`,
     });
     if (!s.identical) throw new Error(`${label}: parallel draws differ from serial draws`);
   }
+  figures.push({
+    group: 'parallel chains: 2 worker threads vs 1 (4 chains)',
+    name: `machine ceiling: arithmetic loop sharing nothing, 2 workers vs 1 (median of ${ceilings.length})`,
+    value: median(ceilings),
+    unit: 'x',
+    note: `per repeat ${ceilings.map((r) => r.toFixed(2)).join(', ')}x, measured between the model repeats above; no code can beat this figure on this machine`,
+  });
   return { suite: 'parallel', figures, details: [], seconds: (performance.now() - start) / 1000 };
 }
 
