@@ -5,7 +5,8 @@
  * cast to float32. Each op takes the exact float64 parameters through the side channel
  * (`sideChannel.ts`): the call's `exact` array, checked against the tensor.
  */
-import * as tf from '@tensorflow/tfjs';
+import type * as tf from '@tensorflow/tfjs';
+import { requireTensorFlow } from '@apsis/core';
 import { sideChannelMismatch } from './sideChannel.js';
 
 /** Builds the error an op throws: the field, the value found, what was expected. */
@@ -27,7 +28,7 @@ function callParameters(t: tf.Tensor, dim: number, exact: Float64Array | undefin
 /** Wraps a customGrad function so that each call can pass its float64 side channel. */
 function withSideChannel<R extends tf.Tensor>(body: (t: tf.Tensor, exact: Float64Array | undefined) => { value: R; gradFunc: (dy: tf.Tensor) => tf.Tensor }) {
   let pending: Float64Array | undefined;
-  const op = tf.customGrad((...args: Array<tf.Tensor | tf.GradSaveFunc>) => {
+  const op = requireTensorFlow().customGrad((...args: Array<tf.Tensor | tf.GradSaveFunc>) => {
     const exact = pending;
     pending = undefined;
     return body(args[0] as tf.Tensor, exact);
@@ -79,8 +80,9 @@ export function createFloat64VectorOp(kernel: KeptJacobianKernel, error: OpError
     const mine = ++generation;
     if (!ok) last.fill(NaN);
     const out = Float32Array.from(last);
+    const tfjs = requireTensorFlow();
     const gradFunc = (dy: tf.Tensor): tf.Tensor => {
-      if (!ok) return tf.zeros([dim]);
+      if (!ok) return tfjs.zeros([dim]);
       if (generation !== mine) {
         kernel.forwardKeeping(params, scratch);
         ++generation; // the kept Jacobian now belongs to no call's closure
@@ -88,9 +90,9 @@ export function createFloat64VectorOp(kernel: KeptJacobianKernel, error: OpError
       const g = dy.dataSync();
       for (let i = 0; i < N; i++) weights[i] = g[i];
       kernel.vjpFromLast(weights, grad);
-      return tf.tensor1d(Float32Array.from(grad));
+      return tfjs.tensor1d(Float32Array.from(grad));
     };
-    return { value: tf.tensor1d(out), gradFunc };
+    return { value: tfjs.tensor1d(out), gradFunc };
   }) as Float64VectorOp;
   Object.defineProperty(call, 'lastOutput', { value: last, enumerable: true });
   return call;
@@ -111,7 +113,8 @@ export function createFloat64ScalarOp(dim: number, valueAndGradient: (params: Fl
     const params = callParameters(t, dim, exact, error);
     lastValue = valueAndGradient(params, lastGradient);
     const g32 = Float32Array.from(lastGradient);
-    return { value: tf.scalar(lastValue), gradFunc: (dy: tf.Tensor): tf.Tensor => tf.mul(dy, tf.tensor1d(g32)) };
+    const tfjs = requireTensorFlow();
+    return { value: tfjs.scalar(lastValue), gradFunc: (dy: tf.Tensor): tf.Tensor => tfjs.mul(dy, tfjs.tensor1d(g32)) };
   }) as Float64ScalarOp;
   Object.defineProperty(call, 'lastValue', { get: () => lastValue, enumerable: true });
   Object.defineProperty(call, 'lastGradient', { value: lastGradient, enumerable: true });

@@ -38,6 +38,7 @@ export {
 export {
   selectBackend,
   loadTensorFlow,
+  requireTensorFlow,
   BackendSelectionError,
   DEFAULT_BACKEND,
   type BackendChoice,

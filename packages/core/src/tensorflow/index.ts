@@ -7,4 +7,4 @@ export {
   type BackendOptions,
 } from './backend.js';
 export { BackendSelectionError } from './errors.js';
-export { loadTensorFlow, type TensorFlow } from './loadTensorFlow.js';
+export { loadTensorFlow, requireTensorFlow, type TensorFlow } from './loadTensorFlow.js';

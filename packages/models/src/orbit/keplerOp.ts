@@ -5,7 +5,8 @@
  * Gradients (implicit function theorem on M = E - e sin E):
  *   dE/dM = 1 / (1 - e cos E),  dE/de = sin E / (1 - e cos E).
  */
-import * as tf from '@tensorflow/tfjs';
+import type * as tf from '@tensorflow/tfjs';
+import { requireTensorFlow } from '@apsis/core';
 import { sideChannelMismatch } from '../sideChannel.js';
 import { OrbitParameterError } from './errors.js';
 import { solveKeplerInto } from './kepler.js';
@@ -37,7 +38,9 @@ export function checkedSideChannel(field: string, exact: Float64Array, tensorVal
 
 let pending: KeplerOpExact | undefined;
 
-const keplerGrad = tf.customGrad((...args: Array<tf.Tensor | tf.GradSaveFunc>) => {
+/** The kernel as a customGrad function, created on first use (TensorFlow.js loads then). */
+function keplerKernel(...args: Array<tf.Tensor | tf.GradSaveFunc>): { value: tf.Tensor; gradFunc: (dy: tf.Tensor) => tf.Tensor[] } {
+  const tfjs = requireTensorFlow();
   const M = args[0] as tf.Tensor;
   const eT = args[1] as tf.Tensor;
   const exact = pending;
@@ -70,7 +73,7 @@ const keplerGrad = tf.customGrad((...args: Array<tf.Tensor | tf.GradSaveFunc>) =
     dEdM[i] = inv;
     dEde[i] = s[1] * inv;
   }
-  const value = tf.tensor(E, M.shape);
+  const value = tfjs.tensor(E, M.shape);
   const gradFunc = (dy: tf.Tensor): tf.Tensor[] => {
     const g = dy.dataSync();
     const gM = new Float32Array(n);
@@ -81,10 +84,12 @@ const keplerGrad = tf.customGrad((...args: Array<tf.Tensor | tf.GradSaveFunc>) =
       if (gE) gE[i] = g[i] * dEde[i];
       else gEsum += g[i] * dEde[i];
     }
-    return [tf.tensor(gM, M.shape), gE ? tf.tensor(gE, eT.shape) : tf.fill(eT.shape, gEsum)];
+    return [tfjs.tensor(gM, M.shape), gE ? tfjs.tensor(gE, eT.shape) : tfjs.fill(eT.shape, gEsum)];
   };
   return { value, gradFunc };
-});
+}
+
+let keplerGrad: ((m: tf.Tensor, e: tf.Tensor) => tf.Tensor) | undefined;
 
 /**
  * Eccentric anomaly E (radians, float32 tensor of M's shape) solving M = E - e sin E,
@@ -95,6 +100,7 @@ const keplerGrad = tf.customGrad((...args: Array<tf.Tensor | tf.GradSaveFunc>) =
  * @param eccentricity scalar tensor or one per element (same shape), 0 <= e < 1.
  */
 export function solveKeplerOp(meanAnomaly: tf.Tensor, eccentricity: tf.Tensor, exact?: KeplerOpExact): tf.Tensor {
+  keplerGrad ??= requireTensorFlow().customGrad(keplerKernel) as (m: tf.Tensor, e: tf.Tensor) => tf.Tensor;
   pending = exact;
   try {
     return keplerGrad(meanAnomaly, eccentricity);
