@@ -165,12 +165,14 @@ describe('Welford accumulators', () => {
     expect(lambda).toBeGreaterThan(0);
     expect(lambda).toBeLessThan(1);
     expect(correlationShrinkage(dense)).toBeCloseTo(lambda, 12);
-    const d = regularisedCovariance(dense)!;
+    const d = regularisedCovariance(dense, true)!;
+    const plain = regularisedCovariance(dense)!;
     const v = regularisedCovariance(diag)!;
     for (let i = 0; i < dim; i++) {
       expect(v[i]).toBeCloseTo(w * cov(i, i) + ridge, 12);
       for (let j = 0; j < dim; j++) {
         expect(d[i * dim + j]).toBeCloseTo(i === j ? w * cov(i, i) + ridge : (1 - lambda) * w * cov(i, j), 12);
+        expect(plain[i * dim + j]).toBeCloseTo(w * cov(i, j) + (i === j ? ridge : 0), 12);
       }
     }
     resetWelford(dense);
@@ -203,7 +205,7 @@ describe('Welford accumulators', () => {
     // ρ = 0.9 from 4000 draws: λ ≈ (1 − 0.81)² / (4000 · 0.81) ≈ 1e-5.
     const strong = fill(5, 4000, 0.9);
     expect(correlationShrinkage(strong)).toBeLessThan(1e-4);
-    const c = regularisedCovariance(strong)!;
+    const c = regularisedCovariance(strong, true)!;
     expect(c[1] / Math.sqrt(c[0] * c[6])).toBeCloseTo(0.9, 1);
   });
 
@@ -225,7 +227,7 @@ describe('Welford accumulators', () => {
         for (let i = 1; i < dim; i++) x[i] = 0.5 * x[i - 1] + Math.sqrt(0.75) * rng.normal();
         addToWelford(w, x);
       }
-      const c = regularisedCovariance(w)!;
+      const c = regularisedCovariance(w, true)!;
       for (let i = 1; i < dim; i++) {
         for (let j = 0; j < i; j++) {
           const truth = 0.5 ** (i - j);

@@ -106,7 +106,10 @@ function adapt(
   if (welford !== null && k >= 0) {
     addToWelford(welford, state.position);
     if (t === settings.schedule.slowWindows[k][1] - 1) {
-      const covariance = regularisedCovariance(welford);
+      // The last window's metric is the one sampling uses: it keeps every correlation
+      // (see `regularisedCovariance` on why only earlier windows are shrunk).
+      const last = k === settings.schedule.slowWindows.length - 1;
+      const covariance = regularisedCovariance(welford, !last);
       resetWelford(welford);
       const metric =
         covariance === null ? null : metricFromCovariance(welford.kind, covariance, state.dim);

@@ -99,10 +99,15 @@ export function correlationShrinkage(state: WelfordState): number {
  * (n / (n + 5)) · S + 1e-3 · (5 / (n + 5)) · I, with S the unbiased estimate.
  * This keeps early, short windows well conditioned (common practice in adaptive HMC).
  * Diagonal kind: `dim` variances; dense kind: the full symmetric `dim × dim` matrix,
- * whose off-diagonal terms are first shrunk toward zero by the factor (1 − λ) of
- * {@link correlationShrinkage}: measured on the demo's joint model (23 coordinates), the
- * 50- and 100-draw windows of a 1000-iteration warmup otherwise gave metrics that cost
- * 54–59 leapfrog steps per iteration in the window after, against 31–34 with it.
+ * with `shrinkCorrelations` its off-diagonal terms first shrunk toward zero by the
+ * factor (1 − λ) of {@link correlationShrinkage}. The warmup shrinks every window but
+ * the last: on the demo's joint model (23 coordinates) the 50- and 100-draw windows of a
+ * 1000-iteration warmup otherwise gave metrics that cost 53–59 leapfrog steps per
+ * iteration in the window after, against 34–36 with it. The last window, whose metric
+ * sampling uses, is not shrunk: λ is the intensity that is best for the covariance's
+ * entries, not for preconditioning, and on a 100-D Gaussian with condition number 1e4
+ * (λ about d/n of the window) it inflated the smallest variances so much that ESS per
+ * gradient fell from 0.085 to 0.019 (`pnpm bench`, 2026-12-02).
  *
  * Dense kind with fewer than {@link denseMinimumDrawsPerDim}·dim positions: the
  * off-diagonal terms are dropped. Such a window cannot estimate a full covariance:
@@ -111,7 +116,7 @@ export function correlationShrinkage(state: WelfordState): number {
  * would force tiny steps and saturated trees until the next window.
  * Returns null when fewer than 2 positions were added.
  */
-export function regularisedCovariance(state: WelfordState): Float64Array | null {
+export function regularisedCovariance(state: WelfordState, shrinkCorrelations = false): Float64Array | null {
   const n = state.count;
   if (n < 2) return null;
   const d = state.dim;
@@ -124,7 +129,7 @@ export function regularisedCovariance(state: WelfordState): Float64Array | null 
   }
   const out = new Float64Array(d * d);
   const full = n >= denseMinimumDrawsPerDim * d;
-  const keep = full ? 1 - correlationShrinkage(state) : 0;
+  const keep = !full ? 0 : shrinkCorrelations ? 1 - correlationShrinkage(state) : 1;
   for (let i = 0; i < d; i++) {
     for (let j = 0; j < i; j++) {
       const v = keep === 0 ? 0 : keep * scale * state.m2[i * d + j];
