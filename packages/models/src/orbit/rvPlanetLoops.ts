@@ -22,7 +22,7 @@
  * (needed by the root form (sqrt(e) cos omega, sqrt(e) sin omega)).
  */
 import { conjunctionMeanAnomalyPartialsInto } from './anomalies.js';
-import { markleyConstant, solveKeplerWithConstants } from './kepler.js';
+import { markleyConstant, solveKeplerInPlace } from './kepler.js';
 import {
   D_CW,
   D_E,
@@ -70,7 +70,8 @@ export function addPlanetCurve(
   const N = times.length;
   for (let i = 0; i < N; i++) {
     const dt = times[i] - tc;
-    solveKeplerWithConstants(n * dt + Mc, e, oneMinusE, mb, s, 0);
+    s[0] = n * dt + Mc;
+    solveKeplerInPlace(e, oneMinusE, mb, s, 0);
     const sinE = s[1];
     const cosE = s[2];
     let D: number;
@@ -226,7 +227,8 @@ export function planetVjpFused(
   const N = times.length;
   for (let i = 0; i < N; i++) {
     const dt = times[i] - tc;
-    solveKeplerWithConstants(n * dt + Mc, e, oneMinusE, mb, s, 0);
+    s[0] = n * dt + Mc;
+    solveKeplerInPlace(e, oneMinusE, mb, s, 0);
     const sinE = s[1];
     const cosE = s[2];
     let D: number;
