@@ -28,8 +28,8 @@
  */
 import { z } from 'zod';
 import { LightCurveDataError, TransitParameterError, TransitWorkspaceError } from './errors.js';
-import { quadraticFluxPartialsUnchecked, quadraticFluxUnchecked } from './quadraticFlux.js';
-import { separationInto, separationPartialsInto } from './skySeparation.js';
+import { quadraticFluxPartialsInPlace, quadraticFluxUnchecked } from './quadraticFlux.js';
+import { separationInPlace, separationPartialsInto } from './skySeparation.js';
 import {
   TD_AR_DP,
   TD_AR_DSLOT,
@@ -375,7 +375,8 @@ export function createLightCurveKernel(options: LightCurveOptions): LightCurveKe
             if (v > width) continue;
           }
         }
-        const inFront = separationInto(tj, decoded, o, sep, 0);
+        sep[0] = tj;
+        const inFront = separationInPlace(decoded, o, sep, 0);
         const zj = sep[0];
         if (!inFront || zj >= reach) continue;
         touched = true;
@@ -384,7 +385,9 @@ export function createLightCurveKernel(options: LightCurveOptions): LightCurveKe
           continue;
         }
         separationPartialsInto(decoded, o, sep, 1);
-        deficit += 1 - quadraticFluxPartialsUnchecked(zj, k, u1, u2, fp, 0);
+        fp[0] = zj;
+        quadraticFluxPartialsInPlace(k, u1, u2, fp, 0);
+        deficit += 1 - fp[0];
         const dz = fp[1];
         a0 += dz * sep[1];
         a1 += dz * sep[2];

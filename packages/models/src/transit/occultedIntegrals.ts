@@ -76,6 +76,17 @@ export function occultedIntegralsInto(
   out: Float64Array,
   at: number,
 ): void {
+  out[at] = z;
+  occultedIntegralsInPlace(k, withPartials, out, at);
+}
+
+/**
+ * {@link occultedIntegralsInto} with z read from out[at] (which the integrals then
+ * overwrite), for per-point callers: a double passed to this call, which V8 does not
+ * inline, would be boxed once per point. Same results, bit for bit.
+ */
+export function occultedIntegralsInPlace(k: number, withPartials: boolean, out: Float64Array, at: number): void {
+  let z = out[at];
   if (z >= 1 + k) {
     // No overlap (first/last contact included: the lens has zero area there).
     for (let i = 0; i < (withPartials ? OCC_SIZE : 3); i++) out[at + i] = 0;

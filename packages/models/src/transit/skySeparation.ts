@@ -67,7 +67,8 @@ const C8 = 1 / 240;
 
 /**
  * Writes sin E, cos E into out[1], out[2] for E = E_c + δ solving Kepler's equation at
- * M = M_c + dM, with sin E_c = sEc, cos E_c = cEc, by Halley's method in δ (cubic
+ * M = M_c + dM (dM read from out[0]), with sin E_c = sEc, cos E_c = cEc of the decoded
+ * planet at d0[o..], by Halley's method in δ (cubic
  * convergence). Since M_c = E_c - e sin E_c, the residual is
  * f(δ) = δ - e (sin E - sin E_c) - dM, with f' = 1 - e cos E and f'' = e sin E.
  * sin δ and cos δ - 1 come from their Taylor series to δ^17 and δ^16 at the first
@@ -77,7 +78,13 @@ const C8 = 1 / 240;
  * Returns false (writing nothing) when |δ| would leave the series' range or the
  * iteration does not settle.
  */
-function keplerNearConjunction(dM: number, e: number, sEc: number, cEc: number, out: Float64Array): boolean {
+function keplerNearConjunction(d0: Float64Array, o: number, out: Float64Array): boolean {
+  // dM arrives in out[0] and the planet's constants are read here, not passed: doubles
+  // passed to this call, which V8 does not inline, would be boxed once per point.
+  const dM = out[0];
+  const e = d0[o + TD_E];
+  const sEc = d0[o + TD_SIN_EC];
+  const cEc = d0[o + TD_COS_EC];
   let d = dM / (1 - e * cEc);
   if (!(Math.abs(d) < 0.5)) return false;
   let sinE = 0;
@@ -133,6 +140,17 @@ function keplerNearConjunction(dM: number, e: number, sEc: number, cEc: number, 
  * No input checks.
  */
 export function separationInto(t: number, d: Float64Array, o: number, out: Float64Array, at: number): boolean {
+  out[at] = t;
+  return separationInPlace(d, o, out, at);
+}
+
+/**
+ * {@link separationInto} with the time read from out[at] (and z written there), for
+ * loops over points: a time computed per point and passed to this call, which V8 does
+ * not inline, would be boxed, one heap allocation per point. Same results, bit for bit.
+ */
+export function separationInPlace(d: Float64Array, o: number, out: Float64Array, at: number): boolean {
+  const t = out[at];
   const e = d[o + TD_E];
   const aR = d[o + TD_SCALED_AXIS];
   const root = d[o + TD_ROOT];
@@ -143,7 +161,8 @@ export function separationInto(t: number, d: Float64Array, o: number, out: Float
   const P = d[o + TD_PERIOD];
   const dt = t - d[o + TD_TC];
   const dM = n * (dt - P * Math.round(dt / P));
-  if (!keplerNearConjunction(dM, e, d[o + TD_SIN_EC], d[o + TD_COS_EC], kepler)) {
+  kepler[0] = dM;
+  if (!keplerNearConjunction(d, o, kepler)) {
     solveKeplerInto(n * dt + d[o + TD_MC], e, kepler, 0);
   }
   const sE = kepler[1];
