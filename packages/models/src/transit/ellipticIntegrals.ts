@@ -63,6 +63,19 @@ export function celUnchecked(kc: number, p: number, a: number, b: number): numbe
  * No input checks (p > 0).
  */
 export function celBasisPairInto(kc: number, p: number, out: Float64Array, at: number): void {
+  out[at] = kc;
+  out[at + 1] = p;
+  celBasisPairInPlace(out, at);
+}
+
+/**
+ * {@link celBasisPairInto} with kc and p read from out[at], out[at + 1] (then
+ * overwritten by the four results), for per-point callers: doubles passed to this
+ * call, which V8 does not inline, would be boxed. Same results, bit for bit.
+ */
+export function celBasisPairInPlace(out: Float64Array, at: number): void {
+  const kc = out[at];
+  const p = out[at + 1];
   let qc = Math.abs(kc);
   if (qc < KC_FLOOR) qc = KC_FLOOR;
   let e = qc;

@@ -44,7 +44,7 @@
  *   inside:   ∂lin/∂k = 4k√a·E(1 - kc²),          ∂lin/∂z = -(4k√a/3)·cel(kc,1,1,-kc²).
  * All of this is checked against independent numerical integration in the tests.
  */
-import { celBasisPairInto } from './ellipticIntegrals.js';
+import { celBasisPairInPlace } from './ellipticIntegrals.js';
 
 /** Offsets in the output of {@link occultedIntegralsInto}. */
 export const OCC_AREA = 0;
@@ -118,7 +118,9 @@ export function occultedIntegralsInPlace(k: number, withPartials: boolean, out: 
     let kc2 = ((1 - k - z) * (1 + s)) / a;
     if (kc2 < 0) kc2 = 0;
     const kc = Math.sqrt(kc2);
-    celBasisPairInto(kc, 1 / a, basis, 0);
+    basis[0] = kc;
+    basis[1] = 1 / a;
+    celBasisPairInPlace(basis, 0);
     const c2 = basis[0]; // cel(kc, 1, 1, 0)
     const s2 = basis[1]; // cel(kc, 1, 0, 1)
     const pi3 = basis[2]; // cel(kc, 1/a, 1, 0)
@@ -173,7 +175,9 @@ export function occultedIntegralsInPlace(k: number, withPartials: boolean, out: 
   let kc2 = s2m1 / (4 * zk);
   if (kc2 < 0) kc2 = 0;
   const kc = Math.sqrt(kc2);
-  celBasisPairInto(kc, (s * s) / (4 * zk), basis, 0);
+  basis[0] = kc;
+  basis[1] = (s * s) / (4 * zk);
+  celBasisPairInPlace(basis, 0);
   const c2 = basis[0];
   const s2 = basis[1];
   const alpha = (s2m1 * (6 * k2 + 2 * zk - 3) - 4 * zk * (7 * k2 + z2 - 4)) / 3;
