@@ -61,7 +61,8 @@ function refine(E: number, m: number, e: number, out: Float64Array, at: number):
  * Unchecked solver for hot loops with the per-eccentricity constants precomputed:
  * `oneMinusE` = 1 - e and `markleyB` = {@link markleyConstant}(e). Any finite mean anomaly
  * `M` (radians), 0 <= e < 1; writes E (radians, continuous in M: E(M + 2 pi) =
- * E(M) + 2 pi), sin E and cos E into out[at], out[at + 1], out[at + 2].
+ * E(M) + 2 pi), sin E and cos E into out[at], out[at + 1], out[at + 2]. Per-point loops
+ * of this package use {@link solveKeplerInPlace}, the same solver.
  */
 export function solveKeplerWithConstants(
   M: number,
@@ -76,11 +77,11 @@ export function solveKeplerWithConstants(
 }
 
 /**
- * {@link solveKeplerWithConstants} with the mean anomaly read from out[at], for loops
- * that solve once per point: V8 does not inline the solver into them, and a double
- * computed per point and passed to a call that is not inlined is boxed, one heap
- * allocation per call (measured: 16 bytes per solve, none this way). Same results, bit
- * for bit.
+ * {@link solveKeplerWithConstants} with the mean anomaly M read from out[at] (then
+ * overwritten by E). M comes through the array because V8 does not inline the solver into the
+ * per-point loops, and a double computed per point and passed to a call that is not
+ * inlined is boxed, one heap allocation per call (measured: 16 bytes per solve, none
+ * this way).
  */
 export function solveKeplerInPlace(e: number, oneMinusE: number, markleyB: number, out: Float64Array, at: number): void {
   const M = out[at];
@@ -150,7 +151,8 @@ export function markleyConstant(e: number): number {
  * sin E and cos E into `out[at..at+2]`. The caller guarantees the domain.
  */
 export function solveKeplerInto(M: number, e: number, out: Float64Array, at = 0): void {
-  solveKeplerWithConstants(M, e, 1 - e, MARKLEY_B / (1 + e), out, at);
+  out[at] = M;
+  solveKeplerInPlace(e, 1 - e, MARKLEY_B / (1 + e), out, at);
 }
 
 function checkEccentricity(e: number, field: string): void {

@@ -58,20 +58,12 @@ export function celUnchecked(kc: number, p: number, a: number, b: number): numbe
 
 /**
  * The cel basis integrals for two characteristics sharing one modulus, in one
- * iteration (the arithmetic–geometric-mean sequence depends on kc only): writes
+ * iteration (the arithmetic–geometric-mean sequence depends on kc only): reads kc and p
+ * from out[at], out[at + 1] and writes
  * out[at..at+3] = [cel(kc, 1, 1, 0), cel(kc, 1, 0, 1), cel(kc, p, 1, 0), cel(kc, p, 0, 1)].
- * No input checks (p > 0).
- */
-export function celBasisPairInto(kc: number, p: number, out: Float64Array, at: number): void {
-  out[at] = kc;
-  out[at + 1] = p;
-  celBasisPairInPlace(out, at);
-}
-
-/**
- * {@link celBasisPairInto} with kc and p read from out[at], out[at + 1] (then
- * overwritten by the four results), for per-point callers: doubles passed to this
- * call, which V8 does not inline, would be boxed. Same results, bit for bit.
+ * The inputs come through the array because the callers run once per point and V8 does
+ * not inline this function: doubles passed as arguments would be boxed, one heap
+ * allocation each per call. No input checks (p > 0).
  */
 export function celBasisPairInPlace(out: Float64Array, at: number): void {
   const kc = out[at];

@@ -46,7 +46,7 @@
  */
 import { celBasisPairInPlace } from './ellipticIntegrals.js';
 
-/** Offsets in the output of {@link occultedIntegralsInto}. */
+/** Offsets in the output of {@link occultedIntegralsInPlace}. */
 export const OCC_AREA = 0;
 export const OCC_LIN = 1;
 export const OCC_R2 = 2;
@@ -56,7 +56,7 @@ export const OCC_LIN_DZ = 5;
 export const OCC_LIN_DK = 6;
 export const OCC_R2_DZ = 7;
 export const OCC_R2_DK = 8;
-/** Slots written by {@link occultedIntegralsInto}. */
+/** Slots written by {@link occultedIntegralsInPlace}. */
 export const OCC_SIZE = 9;
 
 const PI = Math.PI;
@@ -66,24 +66,10 @@ const basis = new Float64Array(4);
 /**
  * Occulted area, ∫ √(1 - r²) dA and ∫ r² dA over the lens, in units of R_*² (see the
  * file comment), and when `withPartials` their derivatives in z and k, written at
- * `out[at + OCC_*]`. Without partials the derivative slots are left untouched.
+ * `out[at + OCC_*]`, for z read from out[at] (which the results overwrite: the callers
+ * run once per point and V8 does not inline this function, so z passed as an argument
+ * would be boxed). Without partials the derivative slots are left untouched.
  * No input checks: z ≥ 0, k > 0, both finite.
- */
-export function occultedIntegralsInto(
-  z: number,
-  k: number,
-  withPartials: boolean,
-  out: Float64Array,
-  at: number,
-): void {
-  out[at] = z;
-  occultedIntegralsInPlace(k, withPartials, out, at);
-}
-
-/**
- * {@link occultedIntegralsInto} with z read from out[at] (which the integrals then
- * overwrite), for per-point callers: a double passed to this call, which V8 does not
- * inline, would be boxed once per point. Same results, bit for bit.
  */
 export function occultedIntegralsInPlace(k: number, withPartials: boolean, out: Float64Array, at: number): void {
   let z = out[at];

@@ -11,7 +11,7 @@
  * blocked light is N = (c0 + c2)·area + c1·lin - c2·r2 and the unocculted star gives
  * F0 = π (1 - u1/3 - u2/6), so flux = 1 - N / F0.
  */
-import { OCC_AREA, OCC_AREA_DK, OCC_AREA_DZ, OCC_LIN, OCC_LIN_DK, OCC_LIN_DZ, OCC_R2, OCC_R2_DK, OCC_R2_DZ, OCC_SIZE, occultedIntegralsInPlace, occultedIntegralsInto } from './occultedIntegrals.js';
+import { OCC_AREA, OCC_AREA_DK, OCC_AREA_DZ, OCC_LIN, OCC_LIN_DK, OCC_LIN_DZ, OCC_R2, OCC_R2_DK, OCC_R2_DZ, OCC_SIZE, occultedIntegralsInPlace } from './occultedIntegrals.js';
 import { TransitParameterError } from './errors.js';
 import { checkScalar, finiteRule, nonNegativeRule, positiveRule } from './validation.js';
 
@@ -31,7 +31,8 @@ export const FLUX_PARTIALS_SIZE = 5;
 export function quadraticFluxUnchecked(z: number, k: number, u1: number, u2: number): number {
   if (z >= 1 + k) return 1;
   if (k >= 1 && z <= k - 1) return 0;
-  occultedIntegralsInto(z, k, false, integrals, 0);
+  integrals[0] = z;
+  occultedIntegralsInPlace(k, false, integrals, 0);
   const blocked = (1 - u1 - 2 * u2) * integrals[OCC_AREA] + (u1 + 2 * u2) * integrals[OCC_LIN] + u2 * integrals[OCC_R2];
   return 1 - blocked / (PI * (1 - u1 / 3 - u2 / 6));
 }
