@@ -104,6 +104,17 @@ describe('checkpoint and restore', () => {
     expect(back).toEqual(data);
   });
 
+  it('restores a version-1 state (written before re-centred dual averaging) with no prior updates', () => {
+    const target = standardNormal(2);
+    const settings = resolveChainSettings({ warmup: 100, draws: 10 });
+    const state = createChainState(target, settings, 0, 1);
+    runFrom(target, settings, state, 30);
+    const data = serialiseChainState(state);
+    const { priorUpdates: _dropped, ...v1DualAveraging } = data.dualAveraging;
+    const restored = restoreChainState({ ...data, version: 1, dualAveraging: v1DualAveraging });
+    expect(restored.dualAveraging).toEqual({ ...v1DualAveraging, priorUpdates: 0 });
+  });
+
   it('rejects inconsistent checkpoints naming the field', () => {
     const target = standardNormal(2);
     const settings = resolveChainSettings({ warmup: 10, draws: 10 });
@@ -112,6 +123,10 @@ describe('checkpoint and restore', () => {
     expect(() => restoreChainState({ ...data, format: 'other' })).toThrow(ChainStateError);
     expect(() => restoreChainState({ ...data, stepSize: -1 })).toThrow(/field `stepSize`/);
     expect(() => restoreChainState({ ...data, rng: { generator: 'xor4096' } })).toThrow(/field `rng`/);
+    const { priorUpdates: _dropped, ...withoutPriorUpdates } = data.dualAveraging;
+    expect(() => restoreChainState({ ...data, dualAveraging: withoutPriorUpdates })).toThrow(
+      /field `dualAveraging.priorUpdates`: required in version 2/,
+    );
     const state = restoreChainState(data);
     expect(() => advanceChain(standardNormal(3), settings, state)).toThrow(/target.dim = 3 but the chain state has dim 2/);
     for (let k = 0; k < 20; k++) advanceChain(target, settings, state);

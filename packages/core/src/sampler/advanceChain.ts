@@ -2,7 +2,7 @@ import type { Target } from '../target.js';
 import type { ChainSettings } from './chainSettings.js';
 import { chainPhase, type ChainState } from './chainState.js';
 import { createChainWorkspace, type ChainWorkspace } from './chainWorkspace.js';
-import { averagedStepSize, startDualAveraging, updateDualAveraging } from './dualAveraging.js';
+import { averagedStepSize, recentreDualAveraging, updateDualAveraging } from './dualAveraging.js';
 import { ChainStateError } from './errors.js';
 import { metricFromCovariance } from './metricFromCovariance.js';
 import { nutsTransition } from './nuts.js';
@@ -49,8 +49,9 @@ function workspaceFor(state: ChainState, settings: ChainSettings): ChainWorkspac
  * Warmup iteration t: dual averaging is updated with the transition's acceptance
  * statistic; inside a slow window the new position is accumulated; at the end of a
  * window the metric is re-estimated from it, the step size is re-initialised by the
- * heuristic and dual averaging restarts from it; after the last warmup iteration the
- * step size is fixed at the dual-averaging average ε̄.
+ * heuristic and dual averaging is re-centred on it (keeping its gain, see
+ * `recentreDualAveraging`); after the last warmup iteration the step size is fixed at
+ * the dual-averaging average ε̄.
  *
  * `workspace` is scratch memory; when omitted one is created once per state and kept.
  * Throws {@link ChainStateError} when the chain is done or does not match the target.
@@ -118,7 +119,7 @@ function adapt(
       ws.start.gradient.set(state.gradient);
       ws.start.logDensity = state.logDensity;
       state.stepSize = heuristicStepSize(target, state.metric, state.rng, state.stepSize, ws.start, ws.trial);
-      state.dualAveraging = startDualAveraging(state.stepSize);
+      state.dualAveraging = recentreDualAveraging(state.dualAveraging, state.stepSize);
     }
   }
   if (t === settings.warmup - 1) state.stepSize = averagedStepSize(state.dualAveraging);

@@ -9,7 +9,7 @@ import { createWelford } from './welford.js';
 
 /** Format tag and version of {@link SerialisedChainState}. */
 export const chainStateFormat = 'apsis-chain-state';
-export const chainStateVersion = 1;
+export const chainStateVersion = 2;
 
 /**
  * A chain state as plain JSON data (numbers, strings, arrays, objects only; every
@@ -79,6 +79,7 @@ export function serialiseChainState(state: ChainState): SerialisedChainState {
       logStepSizeAverage: finiteScalar(da.logStepSizeAverage, 'dualAveraging.logStepSizeAverage'),
       acceptanceGap: finiteScalar(da.acceptanceGap, 'dualAveraging.acceptanceGap'),
       count: da.count,
+      priorUpdates: da.priorUpdates,
     },
     metric: { kind: m.kind, inverseMass: m.kind === 'unit' ? null : toNumbers(m.inverseMass, 'metric.inverseMass') },
     welford:
@@ -95,7 +96,9 @@ const count = z.number().int().min(0);
 
 const serialisedSchema = z.object({
   format: z.literal(chainStateFormat),
-  version: z.literal(chainStateVersion),
+  // Version 1 states predate `dualAveraging.priorUpdates`; their warmup restarted dual
+  // averaging in full after every window, which is priorUpdates = 0.
+  version: z.union([z.literal(1), z.literal(chainStateVersion)]),
   chain: count,
   seed: z.number().int().refine(Number.isSafeInteger, 'expected a safe integer'),
   dim: z.number().int().min(1),
@@ -110,6 +113,7 @@ const serialisedSchema = z.object({
     logStepSizeAverage: finiteNumber,
     acceptanceGap: finiteNumber,
     count,
+    priorUpdates: count.optional(),
   }),
   metric: z.object({
     kind: z.enum(['unit', 'diagonal', 'dense']),
@@ -140,6 +144,9 @@ export function restoreChainState(data: unknown): ChainState {
     throw new ChainStateError(`restoreChainState: field \`${field.replace(/^\./, '') || '(root)'}\`: ${issue.message}`);
   }
   const s = parsed.data;
+  if (s.version === chainStateVersion && s.dualAveraging.priorUpdates === undefined) {
+    throw new ChainStateError(`restoreChainState: field \`dualAveraging.priorUpdates\`: required in version ${chainStateVersion}`);
+  }
   const dim = s.dim;
   const lengthCheck = (field: string, actual: number, expected: number): void => {
     if (actual !== expected) {
@@ -188,7 +195,7 @@ export function restoreChainState(data: unknown): ChainState {
     gradient: Float64Array.from(s.gradient),
     logDensity: s.logDensity,
     stepSize: s.stepSize,
-    dualAveraging: { ...s.dualAveraging },
+    dualAveraging: { ...s.dualAveraging, priorUpdates: s.dualAveraging.priorUpdates ?? 0 },
     metric,
     welford,
     rng,

@@ -18,6 +18,7 @@ export { hmcTransition, createHmcWorkspace, type HmcWorkspace, type StaticPath }
 export { heuristicStepSize } from './stepSizeHeuristic.js';
 export {
   startDualAveraging,
+  recentreDualAveraging,
   updateDualAveraging,
   averagedStepSize,
   defaultDualAveragingConstants,

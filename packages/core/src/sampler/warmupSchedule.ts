@@ -2,7 +2,7 @@
  * When, during warmup, the metric is estimated. Iterations are 0-based indices into
  * warmup. Every warmup iteration adapts the step size; positions drawn inside a slow
  * window are accumulated, and at each window's end the metric is re-estimated from
- * that window alone and dual averaging restarts.
+ * that window alone and dual averaging is re-centred on a new step size.
  */
 export interface WarmupSchedule {
   /** Number of warmup iterations. */
