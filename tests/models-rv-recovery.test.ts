@@ -1,5 +1,5 @@
 import { createRandomStream, runChains } from '@apsis/core';
-import { splitRhat } from '@apsis/diagnostics';
+import { mcseOfQuantile, splitRhat } from '@apsis/diagnostics';
 import { createRvModel, simulateRadialVelocities } from '@apsis/models';
 import { describe, expect, it } from 'vitest';
 
@@ -7,10 +7,10 @@ import { describe, expect, it } from 'vitest';
  * Recovery (issue 4): radial velocities of an invented star with two eccentric planets,
  * seen by two spectrographs with different offsets and jitters, simulated from known
  * true values. Every true value — sampled parameters and derived quantities — lies
- * inside its central 99% posterior interval, every split R-hat (rank-normalised,
- * Vehtari et al. 2021) is below 1.01, and no transition diverges. Fixed seeds; with
- * about 25 strongly correlated columns the chance of one miss for a correct sampler is a
- * few per cent (binomial, common practice).
+ * inside its central 99% posterior interval (within 3 MCSE of its ends), every split
+ * R-hat (rank-normalised, Vehtari et al. 2021) is below 1.01, and no transition
+ * diverges. Fixed seeds; with about 25 strongly correlated columns the chance of one
+ * miss for a correct sampler is a few per cent (binomial, common practice).
  *
  * Derived truths are computed here: minimum masses by bisection on Lovis & Fischer
  * (2010, eq. 1), the semi-major axis by Kepler's third law, the time of periastron from
@@ -107,7 +107,13 @@ async function recover(points: number, span: number, chains: number, warmup: num
       t += P * Math.round((median - t) / P);
     }
     if (name.startsWith('omega_')) t += 360 * Math.round((sorted[Math.floor(sorted.length / 2)] - t) / 360);
-    if (!(lo < t && t < hi)) missed.push(`${name}: ${t} outside [${lo}, ${hi}]`);
+    // The interval's ends are estimates: a truth within 3 MCSE of an end (mcseOfQuantile,
+    // Vehtari et al. 2021) cannot be told from one on it. Seen here: the true period of b
+    // lies at the posterior's 0.56% quantile (4 × 10 000 draws), and a 4 × 1000 run put
+    // the 0.5% end 0.5 MCSE above it.
+    const slackLo = 3 * mcseOfQuantile(perChain, 0.005);
+    const slackHi = 3 * mcseOfQuantile(perChain, 0.995);
+    if (!(lo - slackLo < t && t < hi + slackHi)) missed.push(`${name}: ${t} outside [${lo}, ${hi}] by more than 3 MCSE`);
   }
   expect(Object.keys(known).every((n) => names.includes(n))).toBe(true);
   expect(missed).toEqual([]);
