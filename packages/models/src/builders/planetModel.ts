@@ -11,7 +11,8 @@
  * scales, (2) unless `searchMode` is false, moves the centres to the posterior mode
  * found by L-BFGS (`findMode`), (3) takes each scale from the curvature of the
  * log-density along its coordinate there, 1/√(−∂² log p/∂u²) (central differences of
- * the exact gradient), and compiles again. Period and conjunction time thus become a
+ * the exact gradient), and compiles again; (4) unless `searchMode` is false, repeats
+ * the search in these better-scaled coordinates and, if it moved, (3). Period and conjunction time thus become a
  * float64 reference plus an offset in units of their posterior width, and
  * `runChains`' default start (uniform in (−2, 2) in every coordinate) spreads the
  * chains over about ±2 posterior standard deviations around the mode.
@@ -234,26 +235,35 @@ export async function buildPlanetModel(system: PreparedSystem): Promise<PlanetSy
   };
 
   const startCentres = declared.map((d) => Float64Array.from(d.centre));
-  if (system.searchMode) {
+  // Moves the centres to the mode found from u = 0; false if the search found no better point.
+  const searchAndMove = (): boolean => {
     const grad = new Float64Array(dim);
     const start = compiled.logDensityGrad(new Float64Array(dim), grad);
-    if (Number.isFinite(start)) {
-      const mode = findMode(compiled, { init: new Float64Array(dim), maxIterations: 400 });
-      if (Number.isFinite(mode.logDensity) && mode.logDensity > start) {
-        moveCentres(mode.position);
-        // An eccentricity prior with an infinite density at e = 0 (a beta with α < 1)
-        // puts the mode on that point; such vectors keep their starting centre.
-        declared.forEach((d, n) => {
-          if (d.entry.size === 2 && Math.hypot(d.centre[0], d.centre[1]) < 1e-3 && singularAtZero(d.entry.prior as VectorPrior)) {
-            d.centre.set(startCentres[n]);
-          }
-        });
+    if (!Number.isFinite(start)) return false;
+    const mode = findMode(compiled, { init: new Float64Array(dim), maxIterations: 400 });
+    if (!(Number.isFinite(mode.logDensity) && mode.logDensity > start)) return false;
+    moveCentres(mode.position);
+    // An eccentricity prior with an infinite density at e = 0 (a beta with α < 1)
+    // puts the mode on that point; such vectors keep their starting centre.
+    declared.forEach((d, n) => {
+      if (d.entry.size === 2 && Math.hypot(d.centre[0], d.centre[1]) < 1e-3 && singularAtZero(d.entry.prior as VectorPrior)) {
+        d.centre.set(startCentres[n]);
       }
-      compiled = await compile();
-    }
-  }
+    });
+    return true;
+  };
+  if (system.searchMode && searchAndMove()) compiled = await compile();
   rescaleByCurvature(compiled, declared, dim);
   compiled = await compile();
+  // The first search runs in the prior widths' units, often hundreds of times the
+  // posterior's, where L-BFGS crawls: on the demo's model it stopped at its 400-iteration
+  // limit 18 log units below the mode. In the curvature's units a second search reaches
+  // the mode in about 120 iterations; the scales are then taken again there.
+  if (system.searchMode && searchAndMove()) {
+    compiled = await compile();
+    rescaleByCurvature(compiled, declared, dim);
+    compiled = await compile();
+  }
 
   const x0 = new Float64Array(dim);
   const g0 = new Float64Array(dim);
@@ -381,10 +391,15 @@ function rescaleByCurvature(target: CompiledModel, declared: Declared[], dim: nu
       }
       if (!(H < 0) || !Number.isFinite(H)) continue;
       const s = d.scale[k] / Math.sqrt(-H);
-      // Real-line coordinates (periods, times, offsets) may be very narrow; bounded ones
-      // are kept at or above 1e-4 (1e-2 for eccentricity vectors), so that a singular
-      // prior at a boundary or at e = 0 cannot shrink them to nothing.
-      const floor = d.base.kind === 'real' ? 1e-14 * Math.max(1, Math.abs(d.centre[k])) : d.entry.size === 2 ? 1e-2 : 1e-4;
+      // Real-line and one-sided (log) coordinates may be very narrow: periods, times,
+      // offsets, and a light curve's baseline flux, known to 1e-5 of itself (a floor of
+      // 1e-4 log units made the demo's baseline coordinate 7 times too wide, so the
+      // step size of early warmup was set by it). Two-sided ones are kept at or above
+      // 1e-4 (1e-2 for eccentricity vectors), so that a singular prior at a boundary or
+      // at e = 0 cannot shrink them to nothing; on a log coordinate no prior of the
+      // builders is singular (the Jacobian eᵘ vanishes at the bound).
+      const narrow = d.base.kind === 'real' || d.base.kind === 'positive' || d.base.kind === 'lowerBounded' || d.base.kind === 'upperBounded';
+      const floor = narrow ? 1e-14 * Math.max(1, Math.abs(d.centre[k])) : d.entry.size === 2 ? 1e-2 : 1e-4;
       d.scale[k] = Math.min(Math.max(s, floor), d.maxScale);
     }
   }
