@@ -12,8 +12,9 @@
  * found by L-BFGS (`findMode`), (3) takes each scale from the curvature of the
  * log-density along its coordinate there, 1/√(−∂² log p/∂u²) (central differences of
  * the exact gradient), and compiles again; (4) unless `searchMode` is false, repeats
- * the search in these better-scaled coordinates and, if it moved, (3). Period and conjunction time thus become a
- * float64 reference plus an offset in units of their posterior width, and
+ * the search in these better-scaled coordinates and, if it moved, (3). Period and
+ * conjunction time thus become a float64 reference plus an offset in units of their
+ * posterior width, and
  * `runChains`' default start (uniform in (−2, 2) in every coordinate) spreads the
  * chains over about ±2 posterior standard deviations around the mode.
  */
@@ -396,8 +397,9 @@ function rescaleByCurvature(target: CompiledModel, declared: Declared[], dim: nu
       // 1e-4 log units made the demo's baseline coordinate 7 times too wide, so the
       // step size of early warmup was set by it). Two-sided ones are kept at or above
       // 1e-4 (1e-2 for eccentricity vectors), so that a singular prior at a boundary or
-      // at e = 0 cannot shrink them to nothing; on a log coordinate no prior of the
-      // builders is singular (the Jacobian eᵘ vanishes at the bound).
+      // at e = 0 cannot shrink them to nothing. On a log coordinate no integrable prior
+      // is singular: the density in u is p(θ)·|θ − bound|, which vanishes at the bound
+      // for p ∝ |θ − bound|^(a−1), a > 0.
       const narrow = d.base.kind === 'real' || d.base.kind === 'positive' || d.base.kind === 'lowerBounded' || d.base.kind === 'upperBounded';
       const floor = narrow ? 1e-14 * Math.max(1, Math.abs(d.centre[k])) : d.entry.size === 2 ? 1e-2 : 1e-4;
       d.scale[k] = Math.min(Math.max(s, floor), d.maxScale);
